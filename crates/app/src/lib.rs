@@ -1,0 +1,2 @@
+//! Padwright application library (work in progress).
+#![forbid(unsafe_code)]

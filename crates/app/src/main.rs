@@ -1,0 +1,2 @@
+//! Padwright command line.
+fn main() {}

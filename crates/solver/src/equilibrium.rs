@@ -1,0 +1,826 @@
+//! Pad equilibrium: the film state at which a pad carries its share of the load.
+//!
+//! * **Fixed pad** (tapered land, flat): one unknown, the minimum film. The load falls
+//!   monotonically as the film opens, so the root of `ln W(h) − ln W_target` is bracketed
+//!   between the smallest allowed film and a film that carries less than the target, then found
+//!   by a safeguarded secant (Illinois) iteration in `ln h`. The reverse problem — the load at a
+//!   given film — is a single evaluation.
+//! * **Tilting pad**: unknowns pivot film `h_p`, pitch and roll (pitch only on a line pivot).
+//!   The pressure resultant must equal the pad load and both moments about the pivot must vanish.
+//!   Shape variables `a = pitch·L/h_p`, `g = roll·B/h_p` (L the mean arc length, B the width)
+//!   make the moment conditions independent of `h_p` for a rigid, isoviscous pad, whose pressure
+//!   then scales exactly as `1/h_p²`: the shape is solved first and `h_p` follows in closed form.
+//!   Otherwise (crown, temperature-dependent viscosity) Newton's method runs on
+//!   `(ln h_p, a, g)` with a finite-difference Jacobian, a backtracking line search and bounds
+//!   that keep the film converging and positive.
+//! * **No equilibrium** is recognised, not iterated into: when the iteration drives the pad
+//!   towards a parallel film (the centre of pressure cannot reach a pivot too far forward — the
+//!   rigid, isoviscous pad pivoted at mid-arc is the classical case), towards an unbounded tilt
+//!   (pivot too far aft), or stalls on a singular Jacobian (the zero-moment curves fold).
+
+use crate::error::SolverError;
+use crate::film::{FilmModel, FilmState, Support};
+use crate::pad::PadIntegrals;
+use crate::reynolds::Start;
+
+/// Settings of the equilibrium iterations.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct EquilibriumSettings {
+    /// Smallest film the pad may run at, m. Loads needing less are reported as overload.
+    pub min_film: f64,
+    /// Relative tolerance on the load and on the moments (moments relative to load × length).
+    pub tolerance: f64,
+    /// Largest number of Newton or secant iterations.
+    pub max_iterations: usize,
+}
+
+impl Default for EquilibriumSettings {
+    fn default() -> Self {
+        EquilibriumSettings {
+            min_film: 1e-6,
+            tolerance: 1e-6,
+            max_iterations: 60,
+        }
+    }
+}
+
+/// A pad model the equilibrium can interrogate: film state in, pressure integrals out.
+pub trait FilmResponse {
+    /// Solves the pad at `state` and integrates the pressure.
+    fn respond(&mut self, state: &FilmState, start: Start) -> Result<PadIntegrals, SolverError>;
+    /// True if the pressure at a fixed film shape scales exactly as `1/h_ref²` (rigid,
+    /// isoviscous, no crown).
+    fn scales_inverse_square(&self) -> bool;
+    /// The film model (outline and support).
+    fn film_model(&self) -> &FilmModel;
+    /// Smallest film over the grid nodes for a state, m.
+    fn min_film(&self, state: &FilmState) -> f64;
+}
+
+/// A pad in equilibrium.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Equilibrium {
+    /// The film state found.
+    pub state: FilmState,
+    /// Integrals at that state.
+    pub integrals: PadIntegrals,
+    /// Axial film stiffness `−dW/dh` of the pad, N/m, with `h` the pivot film (tilting pads,
+    /// free to tilt) or the minimum film (fixed pads).
+    pub stiffness: f64,
+    /// Outer iterations used.
+    pub iterations: usize,
+    /// Pressure solves used (including those for the stiffness).
+    pub pressure_solves: usize,
+    /// `|W − W_target| / W_target` at the solution.
+    pub load_error: f64,
+    /// Largest moment about the pivot divided by (load × pad length); zero for fixed pads.
+    pub moment_error: f64,
+}
+
+struct Counted<'a, R: FilmResponse> {
+    r: &'a mut R,
+    solves: usize,
+}
+
+impl<R: FilmResponse> Counted<'_, R> {
+    fn eval(&mut self, s: &FilmState, start: Start) -> Result<PadIntegrals, SolverError> {
+        self.solves += 1;
+        self.r.respond(s, start)
+    }
+}
+
+/// Offset between the reference film and the minimum film of a fixed pad:
+/// `min film = reference + offset`.
+fn fixed_offset<R: FilmResponse>(r: &R, crown: f64) -> f64 {
+    r.min_film(&FilmState {
+        reference: 0.0,
+        crown,
+        ..Default::default()
+    })
+}
+
+/// The load a fixed pad carries at a given minimum film (the reverse problem).
+pub fn fixed_pad_at_film<R: FilmResponse>(
+    r: &mut R,
+    min_film: f64,
+    crown: f64,
+) -> Result<Equilibrium, SolverError> {
+    crate::geometry::positive("minimum film", min_film)?;
+    let off = fixed_offset(r, crown);
+    let state = FilmState {
+        reference: min_film - off,
+        crown,
+        ..Default::default()
+    };
+    let mut c = Counted { r, solves: 0 };
+    let integrals = c.eval(&state, Start::Cold)?;
+    let stiffness = fixed_stiffness(&mut c, &state, integrals.load)?;
+    c.eval(&state, Start::Warm)?;
+    Ok(Equilibrium {
+        state,
+        integrals,
+        stiffness,
+        iterations: 0,
+        pressure_solves: c.solves,
+        load_error: 0.0,
+        moment_error: 0.0,
+    })
+}
+
+fn fixed_stiffness<R: FilmResponse>(
+    c: &mut Counted<R>,
+    state: &FilmState,
+    _load: f64,
+) -> Result<f64, SolverError> {
+    let dh = 0.005 * c.r.min_film(state);
+    let up = c.eval(
+        &FilmState {
+            reference: state.reference + dh,
+            ..*state
+        },
+        Start::Warm,
+    )?;
+    let dn = c.eval(
+        &FilmState {
+            reference: state.reference - dh,
+            ..*state
+        },
+        Start::Warm,
+    )?;
+    Ok(-(up.load - dn.load) / (2.0 * dh))
+}
+
+/// The minimum film at which a fixed pad carries `load` (N).
+pub fn fixed_pad_at_load<R: FilmResponse>(
+    r: &mut R,
+    load: f64,
+    crown: f64,
+    settings: &EquilibriumSettings,
+) -> Result<Equilibrium, SolverError> {
+    crate::geometry::positive("pad load", load)?;
+    let off = fixed_offset(r, crown);
+    let at = |h_min: f64| FilmState {
+        reference: h_min - off,
+        crown,
+        ..Default::default()
+    };
+    let mut c = Counted { r, solves: 0 };
+    // The smallest allowed film bounds the capacity.
+    let h_lo = settings.min_film;
+    let w_lo = c.eval(&at(h_lo), Start::Cold)?.load;
+    if w_lo <= 0.0 {
+        return Err(SolverError::NoLoadCapacity(no_wedge_message(
+            c.r.film_model().support(),
+        )));
+    }
+    if w_lo < load {
+        return Err(SolverError::Overload {
+            load_n: load,
+            min_film_um: h_lo * 1e6,
+            capacity_n: w_lo,
+        });
+    }
+    // Bracket from above by doubling.
+    let (mut a, mut fa) = (h_lo.ln(), (w_lo / load).ln());
+    let mut b = a;
+    let mut fb = fa;
+    for _ in 0..40 {
+        b += std::f64::consts::LN_2;
+        let w = c.eval(&at(b.exp()), Start::Warm)?.load;
+        if w <= 0.0 {
+            fb = f64::NEG_INFINITY;
+            break;
+        }
+        fb = (w / load).ln();
+        if fb < 0.0 {
+            break;
+        }
+        a = b;
+        fa = fb;
+    }
+    if fb >= 0.0 {
+        return Err(SolverError::NotConverged {
+            what: "search for the film that carries the load",
+            iterations: 40,
+            residual: fb,
+        });
+    }
+    if !fb.is_finite() {
+        // Fall back to bisection until a finite value is found.
+        fb = -1.0;
+    }
+    // Illinois (modified regula falsi) on f(ln h) = ln W − ln W_target.
+    let mut side = 0i32;
+    for it in 0..settings.max_iterations {
+        let x = if fb.is_finite() && fa.is_finite() && fa != fb {
+            (a * fb - b * fa) / (fb - fa)
+        } else {
+            0.5 * (a + b)
+        };
+        let integrals = c.eval(&at(x.exp()), Start::Warm)?;
+        let fx = (integrals.load / load).ln();
+        if fx.abs() <= settings.tolerance * 0.5 || (b - a).abs() < 1e-14 {
+            let state = at(x.exp());
+            let stiffness = fixed_stiffness(&mut c, &state, load)?;
+            // Leave the solver holding the equilibrium pressure.
+            let integrals_final = c.eval(&state, Start::Warm)?;
+            return Ok(Equilibrium {
+                state,
+                integrals: integrals_final,
+                stiffness,
+                iterations: it + 1,
+                pressure_solves: c.solves,
+                load_error: (integrals.load / load - 1.0).abs(),
+                moment_error: 0.0,
+            });
+        }
+        if fx > 0.0 {
+            a = x;
+            fa = fx;
+            if side == 1 {
+                fb *= 0.5;
+            }
+            side = 1;
+        } else {
+            b = x;
+            fb = fx;
+            if side == -1 {
+                fa *= 0.5;
+            }
+            side = -1;
+        }
+    }
+    Err(SolverError::NotConverged {
+        what: "search for the film that carries the load",
+        iterations: settings.max_iterations,
+        residual: (b - a).abs(),
+    })
+}
+
+fn no_wedge_message(s: &Support) -> String {
+    match s {
+        Support::Flat => "a flat, parallel film with constant viscosity builds no pressure; \
+                          give the pad a taper, a crown or a tilting support"
+            .into(),
+        _ => "the film builds no pressure at the smallest allowed film".into(),
+    }
+}
+
+/// Dimensionless shape variables and the film state they describe.
+#[derive(Clone, Copy, Debug)]
+struct Shape {
+    ln_h: f64,
+    a: f64,
+    g: f64,
+}
+
+struct TiltFrame {
+    len: f64,
+    width: f64,
+    crown: f64,
+    line: bool,
+    pivot: (f64, f64),
+}
+
+impl TiltFrame {
+    fn state(&self, x: &Shape) -> FilmState {
+        let h = x.ln_h.exp();
+        FilmState {
+            reference: h,
+            pitch: x.a * h / self.len,
+            roll: if self.line { 0.0 } else { x.g * h / self.width },
+            crown: self.crown,
+        }
+    }
+}
+
+/// Start values from the infinitely wide inclined slider: the film ratio `1 + K` whose centre
+/// of pressure (Reynolds' closed form) lies at the pivot, converted to the shape variable `a`.
+fn slider_start(pivot_along: f64) -> f64 {
+    // Centre of pressure of the wide slider, x/L from the inlet, for h = h0(1 + K(1 − x/L)):
+    // p ∝ K x(1 − x)/((2 + K)(1 + K(1 − x))²) (closed form; Cameron, Basic Lubrication Theory).
+    let cp = |k: f64| {
+        let n = 200;
+        let (mut m0, mut m1) = (0.0, 0.0);
+        for i in 0..=n {
+            let x = i as f64 / n as f64;
+            let w = if i == 0 || i == n {
+                1.0
+            } else if i % 2 == 1 {
+                4.0
+            } else {
+                2.0
+            };
+            let p = x * (1.0 - x) / (1.0 + k * (1.0 - x)).powi(2);
+            m0 += w * p;
+            m1 += w * p * x;
+        }
+        m1 / m0
+    };
+    let k = if pivot_along <= cp(1e-3) + 1e-3 {
+        1.0
+    } else if pivot_along >= cp(20.0) {
+        20.0
+    } else {
+        let (mut lo, mut hi) = (1e-3f64, 20.0f64);
+        for _ in 0..50 {
+            let mid = (lo * hi).sqrt();
+            if cp(mid) < pivot_along {
+                lo = mid;
+            } else {
+                hi = mid;
+            }
+        }
+        (lo * hi).sqrt()
+    };
+    // (1 + a ξp)/(1 − a(1 − ξp)) = 1 + K along the mid line.
+    k / (pivot_along + (1.0 + k) * (1.0 - pivot_along))
+}
+
+/// Equilibrium of a tilting pad carrying `load` (N), with a mechanical crown `crown` (m).
+pub fn tilting_pad<R: FilmResponse>(
+    r: &mut R,
+    load: f64,
+    crown: f64,
+    settings: &EquilibriumSettings,
+) -> Result<Equilibrium, SolverError> {
+    crate::geometry::positive("pad load", load)?;
+    let model = r.film_model().clone();
+    let support = *model.support();
+    let (line, pivot) = match support {
+        Support::TiltingPoint {
+            offset_along,
+            offset_across,
+        } => (false, (offset_along, offset_across)),
+        Support::TiltingLine { offset_along } => (true, (offset_along, 0.5)),
+        _ => {
+            return Err(SolverError::Input(crate::error::InputError::Inconsistent(
+                "a tilting-pad equilibrium needs a tilting support".into(),
+            )));
+        }
+    };
+    let frame = TiltFrame {
+        len: model.outline().mean_length(),
+        width: model.outline().width(),
+        crown,
+        line,
+        pivot,
+    };
+    let scaling = r.scales_inverse_square() && crown == 0.0;
+    let mut c = Counted { r, solves: 0 };
+
+    // Reference pivot film for the shape iteration: a film of the order of the answer keeps
+    // the pressures well scaled. Estimate from the wide slider load at the start shape.
+    let a0 = slider_start(pivot.0);
+    let mut x = Shape {
+        ln_h: (20e-6f64).ln(),
+        a: a0,
+        g: 0.0,
+    };
+    // Scale the first guess to the load (exact for a rigid isoviscous pad).
+    let first = c.eval(&frame.state(&x), Start::Cold)?;
+    if first.load > 0.0 {
+        x.ln_h += 0.5 * (first.load / load).ln();
+    }
+
+    let mut n_it = 0;
+    let x = match newton_tilt(&mut c, &frame, x, load, scaling, settings, &mut n_it) {
+        Ok(x) => x,
+        Err(SolverError::NoEquilibrium { .. }) | Err(SolverError::NotConverged { .. }) => {
+            // Newton could not find a root from the slider start: scan the pitch to either
+            // bracket the equilibrium (and restart Newton there) or show that none exists.
+            let start = scan_pitch(&mut c, &frame, x, load)?;
+            newton_tilt(&mut c, &frame, start, load, scaling, settings, &mut n_it)?
+        }
+        Err(e) => return Err(e),
+    };
+    let mut state = frame.state(&x);
+    let mut integrals = c.eval(&state, Start::Warm)?;
+    if scaling {
+        // Exact: W ∝ 1/h_p² at fixed shape.
+        let f = (integrals.load / load).sqrt();
+        state.reference *= f;
+        state.pitch *= f;
+        state.roll *= f;
+        integrals = c.eval(&state, Start::Warm)?;
+    }
+    let min_film = c.r.min_film(&state);
+    if min_film < settings.min_film {
+        // Capacity at the smallest allowed film. Exact for the scaling pad; otherwise by the
+        // same scaling from this equilibrium, which is a close estimate.
+        let capacity = load * (min_film / settings.min_film).powi(2);
+        return Err(SolverError::Overload {
+            load_n: load,
+            min_film_um: settings.min_film * 1e6,
+            capacity_n: capacity,
+        });
+    }
+    let len = frame.len;
+    let moment_error = (integrals.moment_pitch.abs() / len).max(if line {
+        0.0
+    } else {
+        integrals.moment_roll.abs() / frame.width
+    }) / load;
+    let stiffness = if scaling {
+        2.0 * integrals.load / state.reference
+    } else {
+        tilting_stiffness(&mut c, &frame, &x, load, settings)?
+    };
+    // Leave the solver holding the equilibrium pressure.
+    let integrals = c.eval(&state, Start::Warm)?;
+    Ok(Equilibrium {
+        state,
+        integrals,
+        stiffness,
+        iterations: n_it,
+        pressure_solves: c.solves,
+        load_error: (integrals.load / load - 1.0).abs(),
+        moment_error,
+    })
+}
+
+/// `dW/dh_p` with the pad free to tilt, by re-solving the equilibrium at ±1 % load.
+fn tilting_stiffness<R: FilmResponse>(
+    c: &mut Counted<R>,
+    frame: &TiltFrame,
+    x: &Shape,
+    load: f64,
+    settings: &EquilibriumSettings,
+) -> Result<f64, SolverError> {
+    let eps = 0.01;
+    let mut n = 0;
+    let up = newton_tilt(c, frame, *x, load * (1.0 + eps), false, settings, &mut n)?;
+    let dn = newton_tilt(c, frame, *x, load * (1.0 - eps), false, settings, &mut n)?;
+    let (hu, hd) = (up.ln_h.exp(), dn.ln_h.exp());
+    Ok(2.0 * eps * load / (hd - hu))
+}
+
+/// Residual vector of the tilting equilibrium: `[ln(W/W_t), M_pitch/(W L), M_roll/(W B)]`.
+fn tilt_residual(i: &PadIntegrals, frame: &TiltFrame, load: f64) -> Option<[f64; 3]> {
+    if i.load.is_nan() || i.load <= 0.0 {
+        return None;
+    }
+    Some([
+        (i.load / load).ln(),
+        i.moment_pitch / (i.load * frame.len),
+        if frame.line {
+            0.0
+        } else {
+            i.moment_roll / (i.load * frame.width)
+        },
+    ])
+}
+
+const A_MIN: f64 = 2e-3;
+
+/// Sets the roll shape `g` so that the roll moment vanishes at the current pitch (secant, to
+/// the accuracy a scan needs). Returns the residual vector there.
+fn balance_roll<R: FilmResponse>(
+    c: &mut Counted<R>,
+    frame: &TiltFrame,
+    x: &mut Shape,
+    load: f64,
+) -> Result<Option<[f64; 3]>, SolverError> {
+    let eval = |c: &mut Counted<R>, s: &Shape| -> Result<Option<[f64; 3]>, SolverError> {
+        let st = frame.state(s);
+        if c.r.min_film(&st) < FILM_RATIO_MIN * st.reference {
+            return Ok(None);
+        }
+        match c.eval(&st, Start::Warm) {
+            Ok(i) => Ok(tilt_residual(&i, frame, load)),
+            Err(SolverError::FilmClosed { .. }) => Ok(None),
+            Err(e) => Err(e),
+        }
+    };
+    let Some(mut f) = eval(c, x)? else {
+        return Ok(None);
+    };
+    if frame.line {
+        return Ok(Some(f));
+    }
+    let (mut g0, mut f0) = (x.g, f[2]);
+    let mut g1 = x.g + if f0 > 0.0 { 0.05 } else { -0.05 };
+    for _ in 0..10 {
+        let mut xt = *x;
+        xt.g = g1;
+        let Some(f1) = eval(c, &xt)? else {
+            g1 = 0.5 * (g0 + g1);
+            continue;
+        };
+        *x = xt;
+        f = f1;
+        if f1[2].abs() < 1e-4 || f1[2] == f0 {
+            break;
+        }
+        let g2 = g1 - f1[2] * (g1 - g0) / (f1[2] - f0);
+        (g0, f0, g1) = (g1, f1[2], g2.clamp(g1 - 0.5, g1 + 0.5));
+    }
+    Ok(Some(f))
+}
+
+/// Scans the pitch shape over a wide range, with the roll balanced at each value, for a sign
+/// change of the pitch moment. Returns a start for Newton near the bracketed root, or the
+/// reason why no equilibrium exists.
+fn scan_pitch<R: FilmResponse>(
+    c: &mut Counted<R>,
+    frame: &TiltFrame,
+    x0: Shape,
+    load: f64,
+) -> Result<Shape, SolverError> {
+    let no_eq = |reason: String| SolverError::NoEquilibrium {
+        offset_along: frame.pivot.0,
+        offset_across: frame.pivot.1,
+        reason,
+    };
+    let grid = [0.005, 0.015, 0.04, 0.1, 0.25, 0.6, 1.5, 4.0, 10.0, 25.0];
+    let mut prev: Option<(Shape, f64)> = None;
+    let mut signs = Vec::new();
+    for &a in &grid {
+        let mut x = Shape { a, g: 0.0, ..x0 };
+        if let Some((px, _)) = prev {
+            x.g = px.g * a / px.a;
+        }
+        let Some(f) = balance_roll(c, frame, &mut x, load)? else {
+            break;
+        };
+        signs.push(f[1]);
+        if let Some((px, pf)) = prev
+            && pf > 0.0
+            && f[1] <= 0.0
+        {
+            // Bracketed: refine by regula falsi on the pitch residual.
+            let (mut lo, mut flo, mut hi, mut fhi) = (px, pf, x, f[1]);
+            for _ in 0..12 {
+                let t = flo / (flo - fhi);
+                let mut xm = Shape {
+                    a: lo.a + t * (hi.a - lo.a),
+                    g: lo.g + t * (hi.g - lo.g),
+                    ..lo
+                };
+                let Some(fm) = balance_roll(c, frame, &mut xm, load)? else {
+                    break;
+                };
+                if fm[1].abs() < 1e-4 {
+                    return Ok(xm);
+                }
+                if fm[1] > 0.0 {
+                    (lo, flo) = (xm, fm[1]);
+                } else {
+                    (hi, fhi) = (xm, fm[1]);
+                }
+            }
+            return Ok(if flo.abs() < fhi.abs() { lo } else { hi });
+        }
+        prev = Some((x, f[1]));
+    }
+    if signs.iter().all(|&f| f <= 0.0) {
+        Err(no_eq(flat_reason()))
+    } else if signs.iter().all(|&f| f > 0.0) {
+        Err(no_eq(aft_reason()))
+    } else {
+        Err(no_eq(fold_reason()))
+    }
+}
+const FILM_RATIO_MIN: f64 = 0.01;
+
+fn newton_tilt<R: FilmResponse>(
+    c: &mut Counted<R>,
+    frame: &TiltFrame,
+    mut x: Shape,
+    load: f64,
+    scaling: bool,
+    settings: &EquilibriumSettings,
+    iterations: &mut usize,
+) -> Result<Shape, SolverError> {
+    // Active variables: 0 = ln h (unless scaling), 1 = a, 2 = g (unless line pivot).
+    let mut vars: Vec<usize> = Vec::with_capacity(3);
+    if !scaling {
+        vars.push(0);
+    }
+    vars.push(1);
+    if !frame.line {
+        vars.push(2);
+    }
+    let n = vars.len();
+    let no_eq = |reason: String| SolverError::NoEquilibrium {
+        offset_along: frame.pivot.0,
+        offset_across: frame.pivot.1,
+        reason,
+    };
+    let feasible = |c: &Counted<R>, s: &Shape| {
+        let st = frame.state(s);
+        s.a >= A_MIN * 0.999 && c.r.min_film(&st) >= FILM_RATIO_MIN * st.reference
+    };
+    let norm = |f: &[f64; 3]| vars.iter().map(|&v| f[v] * f[v]).sum::<f64>().sqrt();
+    let converged = |f: &[f64; 3]| vars.iter().all(|&v| f[v].abs() <= settings.tolerance);
+    let get = |s: &Shape, v: usize| match v {
+        0 => s.ln_h,
+        1 => s.a,
+        _ => s.g,
+    };
+    let set = |s: &mut Shape, v: usize, val: f64| match v {
+        0 => s.ln_h = val,
+        1 => s.a = val,
+        _ => s.g = val,
+    };
+    let eval = |c: &mut Counted<R>, s: &Shape| -> Result<Option<[f64; 3]>, SolverError> {
+        match c.eval(&frame.state(s), Start::Warm) {
+            Ok(i) => Ok(tilt_residual(&i, frame, load)),
+            Err(SolverError::FilmClosed { .. }) => Ok(None),
+            Err(e) => Err(e),
+        }
+    };
+    if !feasible(c, &x) {
+        x.g = 0.0;
+        x.a = x.a.max(A_MIN);
+    }
+    let mut f = eval(c, &x)?.ok_or_else(|| no_eq("the pad builds no pressure".into()))?;
+    let mut at_flat_bound = 0;
+    for it in 0..settings.max_iterations {
+        *iterations += 1;
+        if converged(&f) {
+            if x.a <= 2.0 * A_MIN {
+                return Err(no_eq(flat_reason()));
+            }
+            return Ok(x);
+        }
+        // Finite-difference Jacobian on the active variables.
+        let mut jac = [[0.0; 3]; 3];
+        for (col, &v) in vars.iter().enumerate() {
+            let x0 = get(&x, v);
+            let step = match v {
+                0 => 1e-5,
+                1 => 1e-5 * x0.abs().max(0.05),
+                _ => 1e-5 * (x0.abs().max(0.05)),
+            };
+            let mut xp = x;
+            // Step towards the interior near the lower bound of `a`.
+            set(&mut xp, v, x0 + step);
+            let fp = eval(c, &xp)?.ok_or_else(|| no_eq("the film closes while tilting".into()))?;
+            for (row, &w) in vars.iter().enumerate() {
+                jac[row][col] = (fp[w] - f[w]) / step;
+            }
+        }
+        let rhs: Vec<f64> = vars.iter().map(|&v| -f[v]).collect();
+        let Some(dx) = solve_small(&jac, &rhs, n) else {
+            return Err(no_eq(fold_reason()));
+        };
+        // Limit the step: ln h by 1, a by a factor of two either way, g by 0.5 + |g|.
+        let mut lam: f64 = 1.0;
+        for (col, &v) in vars.iter().enumerate() {
+            let lim = match v {
+                0 => 1.0,
+                1 => 0.5 * x.a.max(A_MIN),
+                _ => 0.5 + x.g.abs(),
+            };
+            if dx[col].abs() > lim {
+                lam = lam.min(lim / dx[col].abs());
+            }
+        }
+        // Projection on the flat bound a ≥ A_MIN.
+        let a_col = vars.iter().position(|&v| v == 1).unwrap();
+        if x.a + lam * dx[a_col] < A_MIN {
+            if x.a <= A_MIN * 1.0001 {
+                at_flat_bound += 1;
+                if at_flat_bound >= 2 {
+                    return Err(no_eq(flat_reason()));
+                }
+            }
+            lam = lam.min((x.a - A_MIN) / -dx[a_col]).max(0.0);
+            if lam == 0.0 {
+                return Err(no_eq(flat_reason()));
+            }
+        }
+        let f0 = norm(&f);
+        let mut accepted = false;
+        for _ in 0..12 {
+            let mut xn = x;
+            for (col, &v) in vars.iter().enumerate() {
+                set(&mut xn, v, get(&x, v) + lam * dx[col]);
+            }
+            if feasible(c, &xn)
+                && let Some(fn_) = eval(c, &xn)?
+                && norm(&fn_) <= (1.0 - 1e-4 * lam) * f0
+            {
+                x = xn;
+                f = fn_;
+                accepted = true;
+                break;
+            }
+            lam *= 0.5;
+        }
+        if !accepted {
+            // Cannot reduce the residual: diagnose.
+            if x.a <= 3.0 * A_MIN {
+                return Err(no_eq(flat_reason()));
+            }
+            let st = frame.state(&x);
+            if c.r.min_film(&st) <= 1.5 * FILM_RATIO_MIN * st.reference {
+                return Err(no_eq(aft_reason()));
+            }
+            let det = det_small(&jac, n);
+            let scale: f64 = (0..n)
+                .map(|r| (0..n).map(|k| jac[r][k].abs()).fold(0.0, f64::max))
+                .product();
+            if det.abs() <= 1e-3 * scale {
+                return Err(no_eq(fold_reason()));
+            }
+            return Err(SolverError::NotConverged {
+                what: "tilting-pad equilibrium",
+                iterations: it + 1,
+                residual: f0,
+            });
+        }
+    }
+    Err(SolverError::NotConverged {
+        what: "tilting-pad equilibrium",
+        iterations: settings.max_iterations,
+        residual: norm(&f),
+    })
+}
+
+fn flat_reason() -> String {
+    "the centre of pressure cannot reach the pivot: as the tilt shrinks the film tends to a \
+     parallel film that carries no load (move the pivot towards the trailing edge, or rely on \
+     crown or thermal effects)"
+        .into()
+}
+
+fn aft_reason() -> String {
+    "the centre of pressure cannot move that far towards the trailing edge even at extreme tilt \
+     (move the pivot towards the middle of the pad)"
+        .into()
+}
+
+fn fold_reason() -> String {
+    "the moment balance folds here: no tilt balances the moments about this pivot".into()
+}
+
+/// Solves the `n × n` (n ≤ 3) system by Gaussian elimination with partial pivoting.
+fn solve_small(a: &[[f64; 3]; 3], b: &[f64], n: usize) -> Option<Vec<f64>> {
+    let mut m = *a;
+    let mut x = b.to_vec();
+    for col in 0..n {
+        let piv = (col..n).max_by(|&i, &j| m[i][col].abs().total_cmp(&m[j][col].abs()))?;
+        if m[piv][col].abs() < 1e-300 || !m[piv][col].is_finite() {
+            return None;
+        }
+        m.swap(col, piv);
+        x.swap(col, piv);
+        for row in col + 1..n {
+            let f = m[row][col] / m[col][col];
+            let pivot_row = m[col];
+            for (k, v) in m[row].iter_mut().enumerate().take(n).skip(col) {
+                *v -= f * pivot_row[k];
+            }
+            x[row] -= f * x[col];
+        }
+    }
+    for col in (0..n).rev() {
+        let mut s = x[col];
+        for k in col + 1..n {
+            s -= m[col][k] * x[k];
+        }
+        x[col] = s / m[col][col];
+    }
+    x.iter().all(|v| v.is_finite()).then_some(x)
+}
+
+fn det_small(a: &[[f64; 3]; 3], n: usize) -> f64 {
+    match n {
+        1 => a[0][0],
+        2 => a[0][0] * a[1][1] - a[0][1] * a[1][0],
+        _ => {
+            a[0][0] * (a[1][1] * a[2][2] - a[1][2] * a[2][1])
+                - a[0][1] * (a[1][0] * a[2][2] - a[1][2] * a[2][0])
+                + a[0][2] * (a[1][0] * a[2][1] - a[1][1] * a[2][0])
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use approx::assert_relative_eq;
+
+    #[test]
+    fn small_solver_matches_hand_solution() {
+        let a = [[2.0, 1.0, 0.0], [1.0, 3.0, 1.0], [0.0, 1.0, 4.0]];
+        let x = solve_small(&a, &[3.0, 5.0, 5.0], 3).unwrap();
+        for (xi, e) in x.iter().zip([1.0, 1.0, 1.0]) {
+            assert_relative_eq!(*xi, e, epsilon = 1e-12);
+        }
+        assert_relative_eq!(det_small(&a, 3), 18.0, epsilon = 1e-12);
+    }
+
+    /// The wide-slider start for a pivot at 0.5774 of the length is the optimum film ratio
+    /// K = 1.1887 (Reynolds 1886; Cameron, Basic Lubrication Theory).
+    #[test]
+    fn slider_start_recovers_optimum_ratio() {
+        let xp = 0.5774;
+        let a = slider_start(xp);
+        // (1 + a xp)/(1 − a(1−xp)) − 1 = K
+        let k = (1.0 + a * xp) / (1.0 - a * (1.0 - xp)) - 1.0;
+        assert_relative_eq!(k, 1.1887, epsilon = 5e-3);
+    }
+}

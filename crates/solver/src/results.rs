@@ -1,0 +1,130 @@
+//! Results of a bearing analysis, per pad and for the whole bearing, in SI units.
+//!
+//! All pads of a bearing are identical and share the load equally, so one pad is solved and the
+//! bearing totals are that pad times the pad count.
+
+use crate::pad::Flows;
+
+/// How the tilting pad sits on its pivot.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct PadAttitude {
+    /// Film at the pivot, m.
+    pub pivot_film: f64,
+    /// Pitch about the pivot, rad (positive opens the leading edge).
+    pub pitch: f64,
+    /// Roll about the pivot, rad (positive opens the outer edge).
+    pub roll: f64,
+}
+
+/// Results for one pad (SI units).
+#[derive(Clone, Debug, PartialEq)]
+pub struct PadResult {
+    /// Load carried by the pad, N.
+    pub load: f64,
+    /// Minimum film thickness, m.
+    pub min_film: f64,
+    /// Where the minimum film is, `(ξ, η)`: fractions of arc and width.
+    pub min_film_at: (f64, f64),
+    /// Maximum film thickness, m.
+    pub max_film: f64,
+    /// Pivot film, pitch and roll (tilting pads only).
+    pub attitude: Option<PadAttitude>,
+    /// Crown of the pad face used in the film (mechanical plus thermal), m.
+    pub crown: f64,
+    /// Peak pressure, Pa.
+    pub peak_pressure: f64,
+    /// Where the peak pressure is, `(ξ, η)`.
+    pub peak_at: (f64, f64),
+    /// Mean specific load: load divided by pad area, Pa.
+    pub mean_pressure: f64,
+    /// Centre of pressure `(ξ, η)`.
+    pub centre_of_pressure: (f64, f64),
+    /// Friction force of the film on the runner, N.
+    pub friction_force: f64,
+    /// Friction torque about the shaft axis, N·m (sector pads).
+    pub friction_torque: f64,
+    /// Power loss, W.
+    pub power_loss: f64,
+    /// Edge flows, m³/s.
+    pub flows: Flows,
+    /// Axial film stiffness −dW/dh, N/m.
+    pub stiffness: f64,
+    /// Fraction of the pad area at the cavitation pressure.
+    pub cavitated_fraction: f64,
+}
+
+/// Numerical facts of a solution, for the record.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct SolutionStats {
+    /// Nodes along the motion.
+    pub nodes_along: usize,
+    /// Nodes across the motion.
+    pub nodes_across: usize,
+    /// Relative residual of the final pressure solve.
+    pub pressure_residual: f64,
+    /// Multigrid cycles of the final pressure solve.
+    pub pressure_cycles: usize,
+    /// Iterations of the equilibrium search.
+    pub equilibrium_iterations: usize,
+    /// Pressure solves in all.
+    pub pressure_solves: usize,
+    /// Relative load error at the equilibrium.
+    pub load_error: f64,
+    /// Relative moment error at the equilibrium (tilting pads).
+    pub moment_error: f64,
+}
+
+/// The viscosity the solution used and where it came from.
+#[derive(Clone, Debug, PartialEq)]
+pub struct ViscosityBasis {
+    /// Temperature at which the viscosity was taken, K (none for an isoviscous oil).
+    pub temperature: Option<f64>,
+    /// Dynamic viscosity, Pa·s.
+    pub dynamic_viscosity: f64,
+    /// Density, kg/m³.
+    pub density: f64,
+    /// How the temperature was chosen, in words.
+    pub note: String,
+}
+
+/// Pressure and film on the pad grid (finest level), row-major with `ξ` fastest.
+#[derive(Clone, Debug, PartialEq)]
+pub struct PadFields {
+    /// `ξ` of each node column.
+    pub xi: Vec<f64>,
+    /// `η` of each node row.
+    pub eta: Vec<f64>,
+    /// Gauge pressure, Pa.
+    pub pressure: Vec<f64>,
+    /// Film thickness, m.
+    pub film: Vec<f64>,
+}
+
+/// The result of analysing a bearing at one operating point.
+#[derive(Clone, Debug, PartialEq)]
+pub struct BearingResult {
+    /// Number of pads.
+    pub pad_count: usize,
+    /// The representative pad.
+    pub pad: PadResult,
+    /// Total axial load, N.
+    pub load: f64,
+    /// Total power loss, W.
+    pub power_loss: f64,
+    /// Total friction torque, N·m (sector pads).
+    pub friction_torque: f64,
+    /// Total axial film stiffness, N/m.
+    pub stiffness: f64,
+    /// Total flows, m³/s (each pad's flows times the pad count).
+    pub flows: Flows,
+    /// Mean specific load over the total pad area, Pa.
+    pub mean_pressure: f64,
+    /// The viscosity used.
+    pub viscosity: ViscosityBasis,
+    /// Numerical facts.
+    pub stats: SolutionStats,
+    /// Fields on the pad grid.
+    pub fields: PadFields,
+    /// Warnings and notes for the user, in words.
+    pub notes: Vec<String>,
+}

@@ -1,0 +1,2 @@
+//! Validation helpers (work in progress).
+#![forbid(unsafe_code)]
