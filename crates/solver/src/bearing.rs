@@ -12,9 +12,12 @@ use crate::grid::Grid;
 use crate::lubricant::{Lubricant, kelvin_to_celsius};
 use crate::pad::{self, Flows, PadIntegrals};
 use crate::results::{
-    BearingResult, PadAttitude, PadFields, PadResult, SolutionStats, ViscosityBasis,
+    BearingResult, PadAttitude, PadFields, PadResult, SolutionStats, ThermalModelKind,
+    ThermalResult, ViscosityBasis,
 };
 use crate::reynolds::{ReynoldsSettings, ReynoldsSolver, Start};
+use crate::thermal::energy::EnergyBalance;
+use crate::thermal::{BulkPad, FieldPad, FieldSettings, LAMINAR_REYNOLDS_LIMIT, OilSupply};
 
 /// Default grid nodes along the motion (see the convergence study in the README).
 pub const DEFAULT_NODES_ALONG: usize = 65;
@@ -53,6 +56,15 @@ pub enum FilmTemperature {
         /// Effective film temperature, K.
         temperature: f64,
     },
+    /// Quick bulk model: inlet temperature plus a fraction of the adiabatic rise, one viscosity.
+    Bulk {
+        /// Oil supply and carry-over.
+        supply: OilSupply,
+        /// Fraction of the adiabatic rise `P/(ρ c Q_in)` added to the inlet temperature.
+        rise_fraction: f64,
+    },
+    /// Film-temperature field from the energy equation, viscosity varying over the pad.
+    Field(FieldSettings),
 }
 
 /// What the pad must do.
@@ -123,10 +135,23 @@ impl BearingDesign {
                 }
             }
         }
-        match self.temperature {
+        match &self.temperature {
             FilmTemperature::Effective { temperature } => {
-                positive("effective film temperature", temperature)?
+                positive("effective film temperature", *temperature)?
             }
+            FilmTemperature::Bulk {
+                supply,
+                rise_fraction,
+            } => {
+                supply.validate()?;
+                crate::geometry::within(
+                    "fraction of the temperature rise",
+                    *rise_fraction,
+                    0.0,
+                    1.0,
+                )?;
+            }
+            FilmTemperature::Field(f) => f.validate()?,
         }
         positive("smallest allowed film", self.numerics.equilibrium.min_film)?;
         Ok(())
@@ -156,6 +181,13 @@ impl IsothermalPad {
     /// The nodal viscosity field, Pa·s.
     pub fn viscosity(&self) -> &[f64] {
         &self.mu
+    }
+
+    /// Sets a new uniform viscosity, Pa·s. The pad then no longer counts as isoviscous for
+    /// the equilibrium (its viscosity may change between film states).
+    pub fn set_viscosity(&mut self, mu: f64) {
+        self.mu.fill(mu);
+        self.isoviscous = false;
     }
 }
 
@@ -197,46 +229,247 @@ pub fn pad_solver(design: &BearingDesign) -> Result<ReynoldsSolver, SolverError>
 /// Analyses a bearing design at its operating point.
 pub fn analyze(design: &BearingDesign) -> Result<BearingResult, SolverError> {
     design.validate()?;
-    let FilmTemperature::Effective { temperature } = design.temperature;
     let lub = &design.lubricant;
-    let mu = lub
-        .dynamic_viscosity_pa_s(temperature)
-        .map_err(lubricant_error)?;
-    let rho = lub.density_kg_m3(temperature).map_err(lubricant_error)?;
-    let mut notes = Vec::new();
-    let viscosity = if lub.is_isoviscous() {
-        notes.push(
-            "constant viscosity (isoviscous oil): no temperature dependence is modelled".into(),
-        );
-        ViscosityBasis {
-            temperature: None,
-            dynamic_viscosity: mu,
-            density: rho,
-            note: "isoviscous oil".into(),
-        }
-    } else {
-        if let Err(e) = lub.check_temperature_k(temperature) {
-            notes.push(format!("warning: {e}"));
-        }
-        notes.push(format!(
-            "viscosity taken at the effective film temperature of {:.1} °C set in the design \
-             (no thermal model: the film is treated as isothermal)",
-            kelvin_to_celsius(temperature)
-        ));
-        ViscosityBasis {
-            temperature: Some(temperature),
-            dynamic_viscosity: mu,
-            density: rho,
-            note: "effective film temperature set by the user".into(),
-        }
-    };
     let solver = pad_solver(design)?;
-    let mut resp = IsothermalPad::new(solver, mu);
-    let pads = design.pad_count as f64;
-    let eq = solve_pad(&mut resp, design)?;
-    let res = assemble_result(design, &resp.solver, &eq, viscosity, notes);
-    debug_assert!(res.load > 0.0 || pads == 0.0);
-    Ok(res)
+    let mut notes = Vec::new();
+    match design.temperature {
+        FilmTemperature::Effective { temperature } => {
+            let mu = lub
+                .dynamic_viscosity_pa_s(temperature)
+                .map_err(lubricant_error)?;
+            let rho = lub.density_kg_m3(temperature).map_err(lubricant_error)?;
+            let viscosity = if lub.is_isoviscous() {
+                notes.push(
+                    "constant viscosity (isoviscous oil): no temperature dependence is modelled"
+                        .into(),
+                );
+                ViscosityBasis {
+                    temperature: None,
+                    dynamic_viscosity: mu,
+                    density: rho,
+                    note: "isoviscous oil".into(),
+                }
+            } else {
+                check_range(lub, &[temperature], &mut notes);
+                notes.push(format!(
+                    "viscosity taken at the effective film temperature of {:.1} °C set in the \
+                     design (no thermal model: the film is treated as isothermal)",
+                    kelvin_to_celsius(temperature)
+                ));
+                ViscosityBasis {
+                    temperature: Some(temperature),
+                    dynamic_viscosity: mu,
+                    density: rho,
+                    note: "effective film temperature set by the user".into(),
+                }
+            };
+            let mut resp = IsothermalPad::new(solver, mu);
+            let eq = solve_pad(&mut resp, design)?;
+            let mu_field = resp.viscosity().to_vec();
+            Ok(assemble_result(
+                design,
+                &resp.solver,
+                &eq,
+                viscosity,
+                &mu_field,
+                None,
+                notes,
+            ))
+        }
+        FilmTemperature::Bulk {
+            supply,
+            rise_fraction,
+        } => {
+            let mut resp = BulkPad::new(solver, lub.clone(), supply, rise_fraction)?;
+            let eq = solve_pad(&mut resp, design)?;
+            let t_eff = resp.effective_temperature;
+            let mu = lub.dynamic_viscosity_pa_s(t_eff).map_err(lubricant_error)?;
+            let rho = lub.density_kg_m3(t_eff).map_err(lubricant_error)?;
+            let (t_in, rise) = (resp.inlet, resp.rise);
+            check_range(lub, &[t_in, t_in + rise], &mut notes);
+            notes.push(format!(
+                "bulk thermal model: viscosity at the inlet temperature plus {:.0} % of the \
+                 adiabatic rise, uniform over the pad",
+                100.0 * rise_fraction
+            ));
+            let viscosity = ViscosityBasis {
+                temperature: Some(t_eff),
+                dynamic_viscosity: mu,
+                density: rho,
+                note: "bulk model: inlet temperature plus a fraction of the adiabatic rise".into(),
+            };
+            let i = &eq.integrals;
+            let n = resp.pad.solver.grid().len();
+            let thermal = ThermalResult {
+                model: ThermalModelKind::Bulk,
+                supply_temperature: supply.temperature,
+                inlet_temperature: t_in,
+                outlet_temperature: t_in + rise,
+                mean_outflow_temperature: t_in + rise,
+                max_pad_temperature: t_in + rise,
+                max_pad_temperature_at: (1.0, 1.0),
+                sensor_temperature: t_in + 0.75 * rise,
+                effective_temperature: t_eff,
+                effective_viscosity: mu,
+                adiabatic_rise: rise,
+                thermal_crown: 0.0,
+                through_thickness_difference: 0.0,
+                energy: EnergyBalance {
+                    dissipated: i.power_loss,
+                    carried_by_oil: i.power_loss,
+                    ..Default::default()
+                },
+                iterations: 0,
+                fresh_oil_flow: supply.fresh_flow(i.flows.leading_in, i.flows.trailing_out)
+                    * design.pad_count as f64,
+                temperature: vec![t_eff; n],
+            };
+            check_supply(&supply, thermal.fresh_oil_flow, &mut notes);
+            let mu_field = resp.pad.viscosity().to_vec();
+            Ok(assemble_result(
+                design,
+                &resp.pad.solver,
+                &eq,
+                viscosity,
+                &mu_field,
+                Some(thermal),
+                notes,
+            ))
+        }
+        FilmTemperature::Field(settings) => {
+            let mut resp = FieldPad::new(solver, lub.clone(), settings)?;
+            let eq = solve_pad(&mut resp, design)?;
+            let th = resp.thermal().clone();
+            let g = resp.solver.grid();
+            let area = &resp.energy.area;
+            let a_tot: f64 = area.iter().sum();
+            let t_mean = th
+                .temperature
+                .iter()
+                .zip(area)
+                .map(|(t, a)| t * a)
+                .sum::<f64>()
+                / a_tot;
+            let mu_eff = lub
+                .dynamic_viscosity_pa_s(t_mean)
+                .map_err(lubricant_error)?;
+            let rho = lub.density_kg_m3(t_mean).map_err(lubricant_error)?;
+            let (kmax, tmax) = th.temperature.iter().copied().enumerate().fold(
+                (0, f64::NEG_INFINITY),
+                |a, (k, t)| if t > a.1 { (k, t) } else { a },
+            );
+            let at = (g.xi[kmax % (g.nx + 1)], g.eta[kmax / (g.nx + 1)]);
+            let sensor = interpolate(g, &th.temperature, 0.75, 0.75);
+            let tmin = th.temperature.iter().copied().fold(f64::INFINITY, f64::min);
+            check_range(lub, &[tmin, tmax], &mut notes);
+            notes.push(format!(
+                "film temperature from the energy equation ({}); viscosity varies over the pad",
+                match settings.heat.pad {
+                    Some(_) => "heat conducted through the pad to the bath, thermal crown included",
+                    None if settings.heat.runner_coefficient > 0.0 => "heat to the runner",
+                    None => "adiabatic film",
+                }
+            ));
+            let i = &eq.integrals;
+            let q_in = i.flows.leading_in;
+            let rise = if q_in > 0.0 {
+                i.power_loss / (resp.rho_c() * q_in)
+            } else {
+                0.0
+            };
+            let thermal = ThermalResult {
+                model: ThermalModelKind::Field,
+                supply_temperature: settings.supply.temperature,
+                inlet_temperature: th.inlet,
+                outlet_temperature: th.outlet,
+                mean_outflow_temperature: th.mean_outflow,
+                max_pad_temperature: tmax,
+                max_pad_temperature_at: at,
+                sensor_temperature: sensor,
+                effective_temperature: t_mean,
+                effective_viscosity: mu_eff,
+                adiabatic_rise: rise,
+                thermal_crown: th.thermal_crown,
+                through_thickness_difference: th.through_thickness,
+                energy: th.balance,
+                iterations: th.iterations,
+                fresh_oil_flow: settings
+                    .supply
+                    .fresh_flow(i.flows.leading_in, i.flows.trailing_out)
+                    * design.pad_count as f64,
+                temperature: th.temperature.clone(),
+            };
+            check_supply(&settings.supply, thermal.fresh_oil_flow, &mut notes);
+            let viscosity = ViscosityBasis {
+                temperature: Some(t_mean),
+                dynamic_viscosity: mu_eff,
+                density: rho,
+                note: "film temperature field; effective values at the area-mean film \
+                       temperature"
+                    .into(),
+            };
+            let mu_field = resp.viscosity().to_vec();
+            Ok(assemble_result(
+                design,
+                &resp.solver,
+                &eq,
+                viscosity,
+                &mu_field,
+                Some(thermal),
+                notes,
+            ))
+        }
+    }
+}
+
+/// Bilinear interpolation of a nodal field at `(ξ, η)`.
+pub fn interpolate(g: &Grid, f: &[f64], xi: f64, eta: f64) -> f64 {
+    let locate = |x: &[f64], v: f64| {
+        let n = x.len() - 1;
+        let mut i = x.partition_point(|&a| a <= v).saturating_sub(1).min(n - 1);
+        if x[i + 1] < v {
+            i = n - 1;
+        }
+        let t = ((v - x[i]) / (x[i + 1] - x[i])).clamp(0.0, 1.0);
+        (i, t)
+    };
+    let (i, a) = locate(&g.xi, xi);
+    let (j, b) = locate(&g.eta, eta);
+    let v = |ii: usize, jj: usize| f[g.idx(ii, jj)];
+    (1.0 - a) * (1.0 - b) * v(i, j)
+        + a * (1.0 - b) * v(i + 1, j)
+        + (1.0 - a) * b * v(i, j + 1)
+        + a * b * v(i + 1, j + 1)
+}
+
+fn check_range(lub: &Lubricant, temps: &[f64], notes: &mut Vec<String>) {
+    if let Some(r) = lub.valid_temperature_range_k() {
+        for &t in temps {
+            if !r.contains(t) {
+                notes.push(format!(
+                    "warning: film temperature {:.1} °C lies outside the range in which the \
+                     oil's viscosity law holds ({:.0} to {:.0} °C)",
+                    kelvin_to_celsius(t),
+                    kelvin_to_celsius(r.min_k),
+                    kelvin_to_celsius(r.max_k)
+                ));
+                return;
+            }
+        }
+    }
+}
+
+fn check_supply(supply: &OilSupply, fresh: f64, notes: &mut Vec<String>) {
+    if let Some(q) = supply.flow
+        && fresh > q
+    {
+        notes.push(format!(
+            "warning: the pads draw {:.1} L/min of fresh oil but only {:.1} L/min is supplied: \
+             risk of oil starvation (hotter inlet than computed)",
+            fresh * 6e4,
+            q * 6e4
+        ));
+    }
 }
 
 /// The pad equilibrium for the design's support and duty.
@@ -268,6 +501,8 @@ pub fn assemble_result(
     solver: &ReynoldsSolver,
     eq: &Equilibrium,
     viscosity: ViscosityBasis,
+    mu: &[f64],
+    thermal: Option<ThermalResult>,
     mut notes: Vec<String>,
 ) -> BearingResult {
     let i = &eq.integrals;
@@ -304,6 +539,23 @@ pub fn assemble_result(
         ));
     }
     let g = solver.grid();
+    // Local film Reynolds number ρ U h / μ (laminar theory: well below ~1000).
+    let o = solver.frame().outline;
+    let mut re_max: f64 = 0.0;
+    for j in 0..=g.ny {
+        let u = solver.frame().surface_speed(o.t_at(g.eta[j]));
+        for i in 0..=g.nx {
+            let k = g.idx(i, j);
+            re_max = re_max.max(viscosity.density * u * solver.film()[k] / mu[k]);
+        }
+    }
+    if re_max > LAMINAR_REYNOLDS_LIMIT {
+        notes.push(format!(
+            "warning: the local film Reynolds number reaches {re_max:.0} (above about \
+             {LAMINAR_REYNOLDS_LIMIT:.0}): laminar theory becomes doubtful and the power loss \
+             is likely underestimated"
+        ));
+    }
     let scale = |f: &Flows| Flows {
         leading_in: f.leading_in * n,
         trailing_out: f.trailing_out * n,
@@ -319,6 +571,8 @@ pub fn assemble_result(
         flows: scale(&i.flows),
         mean_pressure: i.load / area,
         viscosity,
+        max_reynolds_number: re_max,
+        thermal,
         stats: SolutionStats {
             nodes_along: g.nodes_along(),
             nodes_across: g.nodes_across(),

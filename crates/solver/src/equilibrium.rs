@@ -45,9 +45,25 @@ impl Default for EquilibriumSettings {
 }
 
 /// A pad model the equilibrium can interrogate: film state in, pressure integrals out.
+///
+/// A *coupled* model (thermal) carries an internal state — the viscosity field and the thermal
+/// crown — that `respond` holds fixed and `update` renews from the last solution. The
+/// equilibrium then alternates: an exact equilibrium for the frozen internal state, an update,
+/// and again, until the update changes less than its tolerance. Keeping `respond` a smooth
+/// function of the film state is what lets Newton's method converge to tight tolerances.
 pub trait FilmResponse {
-    /// Solves the pad at `state` and integrates the pressure.
+    /// Solves the pad at `state` with the internal state frozen, and integrates the pressure.
     fn respond(&mut self, state: &FilmState, start: Start) -> Result<PadIntegrals, SolverError>;
+    /// Renews the internal state from the last solution; returns how much it changed
+    /// (the largest film-temperature change, K). Uncoupled models return zero.
+    fn update(&mut self) -> Result<f64, SolverError> {
+        Ok(0.0)
+    }
+    /// Largest change of [`FilmResponse::update`] accepted as converged; infinite for
+    /// uncoupled models.
+    fn update_tolerance(&self) -> f64 {
+        f64::INFINITY
+    }
     /// True if the pressure at a fixed film shape scales exactly as `1/h_ref²` (rigid,
     /// isoviscous, no crown).
     fn scales_inverse_square(&self) -> bool;
@@ -150,12 +166,50 @@ fn fixed_stiffness<R: FilmResponse>(
     Ok(-(up.load - dn.load) / (2.0 * dh))
 }
 
-/// The minimum film at which a fixed pad carries `load` (N).
+/// The minimum film at which a fixed pad carries `load` (N). Coupled (thermal) models
+/// alternate exact frozen solutions with updates of their internal state.
 pub fn fixed_pad_at_load<R: FilmResponse>(
     r: &mut R,
     load: f64,
     crown: f64,
     settings: &EquilibriumSettings,
+) -> Result<Equilibrium, SolverError> {
+    let coupled = r.update_tolerance().is_finite();
+    let mut eq = fixed_frozen(r, load, crown, settings, !coupled)?;
+    if !coupled {
+        return Ok(eq);
+    }
+    let mut solves = eq.pressure_solves;
+    let mut iterations = eq.iterations;
+    for _ in 0..MAX_COUPLING_ROUNDS {
+        // The frozen solve leaves the solver at the equilibrium: renew the temperatures.
+        let change = r.update()?;
+        let last = change < r.update_tolerance();
+        eq = fixed_frozen(r, load, crown, settings, last)?;
+        solves += eq.pressure_solves;
+        iterations += eq.iterations;
+        if last {
+            eq.pressure_solves = solves;
+            eq.iterations = iterations;
+            return Ok(eq);
+        }
+    }
+    Err(SolverError::NotConverged {
+        what: "coupling of film temperature and load",
+        iterations: MAX_COUPLING_ROUNDS,
+        residual: 0.0,
+    })
+}
+
+/// Rounds of frozen equilibrium and internal update allowed for coupled models.
+const MAX_COUPLING_ROUNDS: usize = 40;
+
+fn fixed_frozen<R: FilmResponse>(
+    r: &mut R,
+    load: f64,
+    crown: f64,
+    settings: &EquilibriumSettings,
+    with_stiffness: bool,
 ) -> Result<Equilibrium, SolverError> {
     crate::geometry::positive("pad load", load)?;
     let off = fixed_offset(r, crown);
@@ -221,7 +275,11 @@ pub fn fixed_pad_at_load<R: FilmResponse>(
         let fx = (integrals.load / load).ln();
         if fx.abs() <= settings.tolerance * 0.5 || (b - a).abs() < 1e-14 {
             let state = at(x.exp());
-            let stiffness = fixed_stiffness(&mut c, &state, load)?;
+            let stiffness = if with_stiffness {
+                fixed_stiffness(&mut c, &state, load)?
+            } else {
+                0.0
+            };
             // Leave the solver holding the equilibrium pressure.
             let integrals_final = c.eval(&state, Start::Warm)?;
             return Ok(Equilibrium {
@@ -384,16 +442,41 @@ pub fn tilting_pad<R: FilmResponse>(
     }
 
     let mut n_it = 0;
-    let x = match newton_tilt(&mut c, &frame, x, load, scaling, settings, &mut n_it) {
-        Ok(x) => x,
-        Err(SolverError::NoEquilibrium { .. }) | Err(SolverError::NotConverged { .. }) => {
-            // Newton could not find a root from the slider start: scan the pitch to either
-            // bracket the equilibrium (and restart Newton there) or show that none exists.
-            let start = scan_pitch(&mut c, &frame, x, load)?;
-            newton_tilt(&mut c, &frame, start, load, scaling, settings, &mut n_it)?
+    let coupled = c.r.update_tolerance().is_finite();
+    if coupled {
+        // Let the internal state (temperatures) settle at the start shape and this load
+        // before the first frozen equilibrium, so that the viscosity variation is in the film.
+        for _ in 0..8 {
+            let i = c.eval(&frame.state(&x), Start::Warm)?;
+            if i.load > 0.0 {
+                x.ln_h += 0.5 * (i.load / load).ln();
+            }
+            let change = c.r.update()?;
+            if change < 20.0 * c.r.update_tolerance() {
+                break;
+            }
         }
-        Err(e) => return Err(e),
-    };
+    }
+    let mut x = frozen_tilt(&mut c, &frame, x, load, scaling, settings, &mut n_it)?;
+    if coupled {
+        let mut done = false;
+        for _ in 0..MAX_COUPLING_ROUNDS {
+            c.eval(&frame.state(&x), Start::Warm)?;
+            let change = c.r.update()?;
+            x = frozen_tilt(&mut c, &frame, x, load, scaling, settings, &mut n_it)?;
+            if change < c.r.update_tolerance() {
+                done = true;
+                break;
+            }
+        }
+        if !done {
+            return Err(SolverError::NotConverged {
+                what: "coupling of film temperature and pad equilibrium",
+                iterations: MAX_COUPLING_ROUNDS,
+                residual: 0.0,
+            });
+        }
+    }
     let mut state = frame.state(&x);
     let mut integrals = c.eval(&state, Start::Warm)?;
     if scaling {
@@ -437,6 +520,28 @@ pub fn tilting_pad<R: FilmResponse>(
         load_error: (integrals.load / load - 1.0).abs(),
         moment_error,
     })
+}
+
+/// Equilibrium of the frozen response: Newton from `x`, with the pitch scan as fallback.
+fn frozen_tilt<R: FilmResponse>(
+    c: &mut Counted<R>,
+    frame: &TiltFrame,
+    x: Shape,
+    load: f64,
+    scaling: bool,
+    settings: &EquilibriumSettings,
+    n_it: &mut usize,
+) -> Result<Shape, SolverError> {
+    match newton_tilt(c, frame, x, load, scaling, settings, n_it) {
+        Ok(x) => Ok(x),
+        Err(SolverError::NoEquilibrium { .. }) | Err(SolverError::NotConverged { .. }) => {
+            // Newton could not find a root from this start: scan the pitch to either bracket
+            // the equilibrium (and restart Newton there) or show that none exists.
+            let start = scan_pitch(c, frame, x, load)?;
+            newton_tilt(c, frame, start, load, scaling, settings, n_it)
+        }
+        Err(e) => Err(e),
+    }
 }
 
 /// `dW/dh_p` with the pad free to tilt, by re-solving the equilibrium at ±1 % load.
@@ -741,8 +846,8 @@ fn newton_tilt<R: FilmResponse>(
 
 fn flat_reason() -> String {
     "the centre of pressure cannot reach the pivot: as the tilt shrinks the film tends to a \
-     parallel film that carries no load (move the pivot towards the trailing edge, or rely on \
-     crown or thermal effects)"
+     parallel film that carries no load (move the pivot towards the trailing edge, or give \
+     the pad face a crown)"
         .into()
 }
 

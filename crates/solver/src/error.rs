@@ -67,6 +67,15 @@ pub enum SolverError {
         /// Smallest film found, µm.
         min_film_um: f64,
     },
+    /// The film would overheat.
+    #[error(
+        "the film would exceed {temperature_c:.0} °C: the oil cannot carry this duty at this \
+         speed (reduce the load, enlarge the pads, or improve the cooling)"
+    )]
+    Overheated {
+        /// Temperature reached, °C.
+        temperature_c: f64,
+    },
     /// A film that generates no pressure (a parallel, isoviscous film).
     #[error("the pad carries no load: {0}")]
     NoLoadCapacity(String),

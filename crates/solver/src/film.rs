@@ -196,6 +196,12 @@ impl FilmModel {
         &self.support
     }
 
+    /// Mean squared distance of the pad corners from the pad centre, m²: the crown of height
+    /// `δ` is the paraboloid `δ ρ²/ρ̄²`, i.e. a sphere of curvature `2δ/ρ̄²`.
+    pub fn crown_reference_radius2(&self) -> f64 {
+        1.0 / self.inv_rho2
+    }
+
     fn raw_crown(&self, xy: [f64; 2]) -> f64 {
         dist2(xy, self.centre_xy) * self.inv_rho2
     }

@@ -28,12 +28,14 @@ pub mod bearing;
 pub mod equilibrium;
 pub mod error;
 pub mod film;
+pub mod flow;
 pub mod geometry;
 pub mod grid;
 pub mod lubricant;
 pub mod pad;
 pub mod results;
 pub mod reynolds;
+pub mod thermal;
 
 /// The types most programs need.
 pub mod prelude {
@@ -43,4 +45,5 @@ pub mod prelude {
     pub use crate::geometry::{PadOutline, RunnerSpeed};
     pub use crate::lubricant::{IsoVg, Lubricant};
     pub use crate::results::BearingResult;
+    pub use crate::thermal::{FieldSettings, HeatPaths, OilSupply, PadConduction};
 }

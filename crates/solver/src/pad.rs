@@ -2,45 +2,20 @@
 //! moments about the pivot axes, centre of pressure, friction, power loss and flows.
 //!
 //! Integrals over the pad use the control volumes of the grid as weights (the trapezoidal rule
-//! in `(s, t)` with the metric `m(t)`), which is second-order accurate. Edge flows are the
+//! in `(s, t)` with the metric `m(t)`), which is second-order accurate. The friction of the film
+//! on the runner is `τ = μU/h + (h/2) ∂p/∂x`; its pressure part is integrated over the strips
+//! between neighbouring nodes along the motion, `(h_e Δt/2)(p_{i+1} − p_i)`, which makes the
+//! runner power equal, to the solver residual, to the dissipation `∫ μU²/h + h³|∇p|²/(12μ) dA`
+//! summed from the same faces (the check the energy equation relies on). Edge flows are the
 //! fluxes through the physical pad edges obtained from the flow balance of the edge (half)
 //! control volumes, with the same face fluxes as the discretisation; the four edge flows
 //! therefore balance to the solver residual (see [`Flows::imbalance`]).
 
 use crate::error::SolverError;
 use crate::film::FilmState;
+pub use crate::flow::Flows;
+use crate::flow::edge_flows;
 use crate::reynolds::{ReynoldsSolver, SolveReport, Start};
-
-/// Volume flows through the four pad edges, m³/s, each positive in its natural direction.
-#[derive(Clone, Copy, Debug, PartialEq, Default)]
-pub struct Flows {
-    /// Inflow through the leading edge.
-    pub leading_in: f64,
-    /// Outflow through the trailing edge.
-    pub trailing_out: f64,
-    /// Side leakage through the inner edge (inner radius, or first side).
-    pub inner_out: f64,
-    /// Side leakage through the outer edge (outer radius, or second side).
-    pub outer_out: f64,
-}
-
-impl Flows {
-    /// Total side leakage, m³/s.
-    pub fn side_leakage(&self) -> f64 {
-        self.inner_out + self.outer_out
-    }
-
-    /// Flow-balance residual: (inflow − outflows) / inflow, dimensionless. Near the solver
-    /// tolerance for a full film; with cavitation the Swift–Stieber condition does not
-    /// conserve mass and this shows by how much.
-    pub fn imbalance(&self) -> f64 {
-        if self.leading_in > 0.0 {
-            (self.leading_in - self.trailing_out - self.side_leakage()) / self.leading_in
-        } else {
-            0.0
-        }
-    }
-}
 
 /// Everything integrated from one pressure solution of one pad (SI units).
 #[derive(Clone, Copy, Debug, PartialEq, Default)]
@@ -167,13 +142,22 @@ pub fn integrate(solver: &ReynoldsSolver, mu: &[f64], solve: SolveReport) -> Pad
                 hmin = (h[k], (g.xi[i], g.eta[j]));
             }
             hmax = hmax.max(h[k]);
-            // Pressure gradient along the motion, per metre of arc.
-            let dpds = grad_along(g, p, i, j) / (s_span * m);
-            let tau = mu[k] * u / h[k] + 0.5 * h[k] * dpds;
+            // Couette shear μU/h on the control volume of the node.
+            let tau = mu[k] * u / h[k];
             friction_force += tau * da;
             power += tau * u * da;
             if is_sector {
                 friction_torque += tau * t * da;
+            }
+            // Pressure-gradient shear (h/2) ∂p/∂x integrated over the strip between this node
+            // and the next along the motion: (h_e Δt / 2)(p_{i+1} − p_i).
+            if i < g.nx {
+                let f = 0.5 * lvl.he[k] * dt * (p[k + 1] - p[k]);
+                friction_force += f;
+                power += f * u;
+                if is_sector {
+                    friction_torque += f * t;
+                }
             }
             let interior = i > 0 && i < g.nx && j > 0 && j < g.ny;
             if cav_on && interior && p[k] <= floor {
@@ -206,30 +190,6 @@ pub fn integrate(solver: &ReynoldsSolver, mu: &[f64], solve: SolveReport) -> Pad
     }
 }
 
-/// `∂p/∂ξ` at node `(i, j)`: central (non-uniform) differences inside, one-sided second-order
-/// on the leading and trailing edges. Pa per unit `ξ`.
-fn grad_along(g: &crate::grid::Grid, p: &[f64], i: usize, j: usize) -> f64 {
-    let x = &g.xi;
-    let k = g.idx(i, j);
-    let n = g.nx;
-    if i == 0 {
-        let (h1, h2) = (x[1] - x[0], x[2] - x[0]);
-        three_point(p[k], p[k + 1], p[k + 2], h1, h2)
-    } else if i == n {
-        let (h1, h2) = (x[n - 1] - x[n], x[n - 2] - x[n]);
-        three_point(p[k], p[k - 1], p[k - 2], h1, h2)
-    } else {
-        let (hm, hp) = (x[i] - x[i - 1], x[i + 1] - x[i]);
-        (p[k + 1] * hm * hm - p[k - 1] * hp * hp + p[k] * (hp * hp - hm * hm))
-            / (hm * hp * (hm + hp))
-    }
-}
-
-/// Derivative at `x0` from values at `x0`, `x0 + h1`, `x0 + h2` (quadratic fit).
-fn three_point(f0: f64, f1: f64, f2: f64, h1: f64, h2: f64) -> f64 {
-    (f1 * h2 * h2 - f2 * h1 * h1 - f0 * (h2 * h2 - h1 * h1)) / (h1 * h2 * (h2 - h1))
-}
-
 /// Maps a runner-plane position back to pad-local `(ξ, η)`.
 fn local_coordinates(o: &crate::geometry::PadOutline, xy: [f64; 2]) -> (f64, f64) {
     match *o {
@@ -243,36 +203,5 @@ fn local_coordinates(o: &crate::geometry::PadOutline, xy: [f64; 2]) -> (f64, f64
             (th / arc, (r - inner_radius) / (outer_radius - inner_radius))
         }
         crate::geometry::PadOutline::Rectangle { length, width } => (xy[0] / length, xy[1] / width),
-    }
-}
-
-/// Flows through the four physical edges from the balance of the edge control volumes.
-///
-/// With the face flows `Q_e(i, j) = U Δt h_e/2 − G_e (p_{i+1,j} − p_{i,j})` and
-/// `Q_n(i, j) = −G_n (p_{i,j+1} − p_{i,j})` of the discretisation (m³/s), the half control
-/// volume of a boundary node passes on through its physical edge whatever its other faces
-/// do not balance. Corner quarter-volumes are assigned to the leading and trailing edges.
-pub fn edge_flows(lvl: &crate::reynolds::stencil::Level, p: &[f64]) -> Flows {
-    let g = &lvl.grid;
-    let (nx, ny) = (g.nx, g.ny);
-    let qe = |i: usize, j: usize| {
-        let k = g.idx(i, j);
-        lvl.ue[k] * lvl.he[k] - lvl.ce[k] * (p[k + 1] - p[k])
-    };
-    let qn = |i: usize, j: usize| {
-        let k = g.idx(i, j);
-        -lvl.cn[k] * (p[g.idx(i, j + 1)] - p[k])
-    };
-    let leading_in = (0..=ny).map(|j| qe(0, j)).sum();
-    let trailing_out = (0..=ny).map(|j| qe(nx - 1, j)).sum();
-    let inner_out = (1..nx).map(|i| qe(i - 1, 0) - qe(i, 0) - qn(i, 0)).sum();
-    let outer_out = (1..nx)
-        .map(|i| qe(i - 1, ny) - qe(i, ny) + qn(i, ny - 1))
-        .sum();
-    Flows {
-        leading_in,
-        trailing_out,
-        inner_out,
-        outer_out,
     }
 }

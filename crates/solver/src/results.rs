@@ -121,10 +121,63 @@ pub struct BearingResult {
     pub mean_pressure: f64,
     /// The viscosity used.
     pub viscosity: ViscosityBasis,
+    /// Largest local film Reynolds number `ρUh/μ` on the pad.
+    pub max_reynolds_number: f64,
+    /// Temperatures (thermal models only).
+    pub thermal: Option<ThermalResult>,
     /// Numerical facts.
     pub stats: SolutionStats,
     /// Fields on the pad grid.
     pub fields: PadFields,
     /// Warnings and notes for the user, in words.
     pub notes: Vec<String>,
+}
+
+/// Which thermal model produced a [`ThermalResult`].
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum ThermalModelKind {
+    /// Inlet temperature plus a fraction of the adiabatic rise, one viscosity.
+    Bulk,
+    /// Film-temperature field from the energy equation.
+    Field,
+}
+
+/// Temperatures and heat of a thermal analysis (SI units; temperatures in K).
+#[derive(Clone, Debug, PartialEq)]
+pub struct ThermalResult {
+    /// The model.
+    pub model: ThermalModelKind,
+    /// Oil supply temperature, K.
+    pub supply_temperature: f64,
+    /// Mixed inlet temperature at the leading edge, K.
+    pub inlet_temperature: f64,
+    /// Flow-weighted temperature of the trailing-edge outflow, K.
+    pub outlet_temperature: f64,
+    /// Flow-weighted temperature of all oil leaving the pad, K.
+    pub mean_outflow_temperature: f64,
+    /// Hottest pad-surface temperature, K (bulk model: the adiabatic outlet temperature).
+    pub max_pad_temperature: f64,
+    /// Where the hottest point is, `(ξ, η)`.
+    pub max_pad_temperature_at: (f64, f64),
+    /// Pad temperature at 75 % of the arc and 75 % of the width (the customary sensor
+    /// position), K (bulk model: inlet plus 75 % of the rise).
+    pub sensor_temperature: f64,
+    /// Effective film temperature, K (field model: area-mean film temperature).
+    pub effective_temperature: f64,
+    /// Viscosity at the effective temperature, Pa·s.
+    pub effective_viscosity: f64,
+    /// Adiabatic bulk rise `P/(ρ c Q_in)` of one pad, K.
+    pub adiabatic_rise: f64,
+    /// Thermal crown of the pad, m.
+    pub thermal_crown: f64,
+    /// Pad-mean temperature difference through the pad thickness, K.
+    pub through_thickness_difference: f64,
+    /// Energy totals of one pad, W.
+    pub energy: crate::thermal::energy::EnergyBalance,
+    /// Reynolds–energy iterations at the final film state.
+    pub iterations: usize,
+    /// Fresh oil the whole bearing draws from the supply, m³/s.
+    pub fresh_oil_flow: f64,
+    /// Film temperature at the grid nodes, K.
+    pub temperature: Vec<f64>,
 }
