@@ -282,10 +282,12 @@ pub fn analyze(design: &BearingDesign) -> Result<BearingResult, SolverError> {
         } => {
             let mut resp = BulkPad::new(solver, lub.clone(), supply, rise_fraction)?;
             let eq = solve_pad(&mut resp, design)?;
+            // Report the inlet and rise of the final solution (the viscosity's temperature
+            // agrees with them to the coupling tolerance).
+            let (t_in, rise) = resp.inlet_and_rise(&eq.integrals);
             let t_eff = resp.effective_temperature;
             let mu = lub.dynamic_viscosity_pa_s(t_eff).map_err(lubricant_error)?;
             let rho = lub.density_kg_m3(t_eff).map_err(lubricant_error)?;
-            let (t_in, rise) = (resp.inlet, resp.rise);
             check_range(lub, &[t_in, t_in + rise], &mut notes);
             notes.push(format!(
                 "bulk thermal model: viscosity at the inlet temperature plus {:.0} % of the \
@@ -339,6 +341,7 @@ pub fn analyze(design: &BearingDesign) -> Result<BearingResult, SolverError> {
         FilmTemperature::Field(settings) => {
             let mut resp = FieldPad::new(solver, lub.clone(), settings)?;
             let eq = solve_pad(&mut resp, design)?;
+            resp.refresh_report();
             let th = resp.thermal().clone();
             let g = resp.solver.grid();
             let area = &resp.energy.area;

@@ -122,21 +122,41 @@ pub fn fixed_pad_at_film<R: FilmResponse>(
     crown: f64,
 ) -> Result<Equilibrium, SolverError> {
     crate::geometry::positive("minimum film", min_film)?;
-    let off = fixed_offset(r, crown);
-    let state = FilmState {
-        reference: min_film - off,
+    let at = |r: &R| FilmState {
+        reference: min_film - fixed_offset(r, crown),
         crown,
         ..Default::default()
     };
+    let coupled = r.update_tolerance().is_finite();
     let mut c = Counted { r, solves: 0 };
-    let integrals = c.eval(&state, Start::Cold)?;
+    let mut state = at(c.r);
+    let mut integrals = c.eval(&state, Start::Cold)?;
+    let mut rounds = 0;
+    while coupled {
+        // Coupled model: renew the internal state until it settles (the thermal crown moves
+        // the minimum film, so the reference film follows it).
+        let change = c.r.update()?;
+        state = at(c.r);
+        integrals = c.eval(&state, Start::Warm)?;
+        rounds += 1;
+        if change < c.r.update_tolerance() {
+            break;
+        }
+        if rounds >= MAX_COUPLING_ROUNDS {
+            return Err(SolverError::NotConverged {
+                what: "film temperature at the given film",
+                iterations: rounds,
+                residual: change,
+            });
+        }
+    }
     let stiffness = fixed_stiffness(&mut c, &state, integrals.load)?;
     c.eval(&state, Start::Warm)?;
     Ok(Equilibrium {
         state,
         integrals,
         stiffness,
-        iterations: 0,
+        iterations: rounds,
         pressure_solves: c.solves,
         load_error: 0.0,
         moment_error: 0.0,

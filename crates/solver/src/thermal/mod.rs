@@ -299,6 +299,38 @@ fn lub(e: crate::lubricant::LubricantError) -> SolverError {
 }
 
 impl FieldPad {
+    /// Recomputes the reported thermal state (temperature field, outlet temperatures, energy
+    /// balance) from the current pressure solution without touching the viscosity field, so that
+    /// the report belongs to the final equilibrium. The film temperature then differs from the
+    /// one the viscosity came from by less than the coupling tolerance.
+    pub fn refresh_report(&mut self) {
+        let surf = self.settings.exchange();
+        let supply = self.settings.supply;
+        let g = self.solver.grid();
+        let frame = *self.solver.frame();
+        self.energy.prepare(
+            &frame,
+            self.solver.level(),
+            self.solver.pressure(),
+            &self.mu,
+            self.solver.film(),
+        );
+        let flows = self.energy.faces.edges(g);
+        let t_in =
+            supply.inlet_temperature(self.state.outlet, flows.leading_in, flows.trailing_out);
+        self.energy
+            .solve(g, self.rho_c, t_in, supply.temperature, &surf);
+        self.state.balance = self
+            .energy
+            .balance(g, self.rho_c, t_in, supply.temperature, &surf);
+        let t = &self.energy.temperature;
+        let (outlet, mean) = outflow_temperatures(g, &self.energy.faces, t, t_in);
+        self.state.inlet = t_in;
+        self.state.outlet = outlet;
+        self.state.mean_outflow = mean;
+        self.state.temperature.clone_from(t);
+    }
+
     /// Renews the temperature field from the last pressure solution: energy equation with
     /// the mixed inlet, then viscosity and thermal crown. Returns the largest change of the
     /// film temperature, K.
@@ -367,24 +399,7 @@ impl FieldPad {
                 temperature_c: crate::lubricant::kelvin_to_celsius(t_max),
             });
         }
-        // Flow-weighted outlet temperatures.
-        let (mut qt, mut q, mut qa, mut qta) = (0.0, 0.0, 0.0, 0.0);
-        for j in 0..=g.ny {
-            for i in 0..=g.nx {
-                if i == 0 || i == g.nx || j == 0 || j == g.ny {
-                    let out = self.energy.faces.edge_outflow(g, i, j);
-                    if out > 0.0 {
-                        let tk = t[g.idx(i, j)];
-                        qa += out;
-                        qta += out * tk;
-                        if i == g.nx {
-                            q += out;
-                            qt += out * tk;
-                        }
-                    }
-                }
-            }
-        }
+        let (outlet, mean_outflow) = outflow_temperatures(g, &self.energy.faces, t, t_in);
         // Thermal crown from the pad-mean through-thickness difference.
         let (crown, dt_mean) = match self.settings.heat.pad {
             Some(pc) => {
@@ -401,8 +416,8 @@ impl FieldPad {
             None => (0.0, 0.0),
         };
         self.state.inlet = t_in;
-        self.state.outlet = if q > 0.0 { qt / q } else { t_in };
-        self.state.mean_outflow = if qa > 0.0 { qta / qa } else { t_in };
+        self.state.outlet = outlet;
+        self.state.mean_outflow = mean_outflow;
         self.state.through_thickness = dt_mean;
         self.state.iterations += 1;
         self.state.thermal_crown = crown;
@@ -411,6 +426,37 @@ impl FieldPad {
         }
         Ok(change)
     }
+}
+
+/// Flow-weighted temperatures of the trailing-edge outflow and of all outflow, K (the inlet
+/// temperature `t_in` if nothing flows out).
+fn outflow_temperatures(
+    g: &crate::grid::Grid,
+    faces: &crate::flow::FaceFlows,
+    t: &[f64],
+    t_in: f64,
+) -> (f64, f64) {
+    let (mut qt, mut q, mut qa, mut qta) = (0.0, 0.0, 0.0, 0.0);
+    for j in 0..=g.ny {
+        for i in 0..=g.nx {
+            if i == 0 || i == g.nx || j == 0 || j == g.ny {
+                let out = faces.edge_outflow(g, i, j);
+                if out > 0.0 {
+                    let tk = t[g.idx(i, j)];
+                    qa += out;
+                    qta += out * tk;
+                    if i == g.nx {
+                        q += out;
+                        qt += out * tk;
+                    }
+                }
+            }
+        }
+    }
+    (
+        if q > 0.0 { qt / q } else { t_in },
+        if qa > 0.0 { qta / qa } else { t_in },
+    )
 }
 
 /// Largest change of the film temperature applied in one update, K.
@@ -503,6 +549,29 @@ impl BulkPad {
     }
 }
 
+impl BulkPad {
+    /// Inlet temperature and adiabatic rise `P/(ρ c Q_in)` of a pad solution, K:
+    /// `T_in = c (T_in + ΔT) + (1 − c) T_supply`, with `c` the carried share of the inflow,
+    /// is linear in `T_in`: `T_in = T_supply + c ΔT / (1 − c)`.
+    pub fn inlet_and_rise(&self, i: &PadIntegrals) -> (f64, f64) {
+        let q_in = i.flows.leading_in;
+        let rise = if q_in > 0.0 {
+            i.power_loss / (self.rho_c * q_in)
+        } else {
+            0.0
+        };
+        let c = if q_in > 0.0 {
+            (self.supply.carry_over * i.flows.trailing_out.max(0.0)).min(q_in) / q_in
+        } else {
+            0.0
+        };
+        (
+            self.supply.temperature + c * rise / (1.0 - c).max(1e-3),
+            rise,
+        )
+    }
+}
+
 impl FilmResponse for BulkPad {
     fn respond(&mut self, state: &FilmState, start: Start) -> Result<PadIntegrals, SolverError> {
         let i = self.pad.respond(state, start)?;
@@ -514,21 +583,7 @@ impl FilmResponse for BulkPad {
         let Some(i) = self.last else {
             return Ok(f64::INFINITY);
         };
-        let q_in = i.flows.leading_in;
-        let rise = if q_in > 0.0 {
-            i.power_loss / (self.rho_c * q_in)
-        } else {
-            0.0
-        };
-        // T_in = c (T_in + ΔT) + (1 − c) T_supply, with c the carried share of the inflow,
-        // is linear in T_in: T_in = T_supply + c ΔT / (1 − c).
-        let q_out = i.flows.trailing_out;
-        let c = if q_in > 0.0 {
-            (self.supply.carry_over * q_out.max(0.0)).min(q_in) / q_in
-        } else {
-            0.0
-        };
-        let t_in = self.supply.temperature + c * rise / (1.0 - c).max(1e-3);
+        let (t_in, rise) = self.inlet_and_rise(&i);
         let target = t_in + self.rise_fraction * rise;
         let r = target - self.effective_temperature;
         if !r.is_finite() {
