@@ -122,7 +122,14 @@ impl BearingDesign {
                 arc.to_degrees()
             )));
         }
-        crate::geometry::within("crown", self.crown, 0.0, 1e-3)?;
+        crate::error::within_um("the crown", self.crown, 0.0, 1e-3)?;
+        // The runner speed must suit the outline, and the grid must be a valid size.
+        PadFrame::new(self.outline, self.speed)?;
+        Grid::new(
+            self.numerics.nodes_along,
+            self.numerics.nodes_across,
+            None,
+        )?;
         match self.duty {
             Duty::Load(w) => positive("axial load", w)?,
             Duty::MinFilm(h) => {
@@ -495,7 +502,7 @@ pub fn solve_pad<R: FilmResponse>(
 }
 
 fn lubricant_error(e: crate::lubricant::LubricantError) -> SolverError {
-    SolverError::Input(InputError::Inconsistent(e.to_string()))
+    e.into()
 }
 
 /// Collects the per-pad and bearing results from an equilibrium.

@@ -132,9 +132,9 @@ pub fn fixed_pad_at_film<R: FilmResponse>(
     let mut state = at(c.r);
     let mut integrals = c.eval(&state, Start::Cold)?;
     let mut rounds = 0;
-    while coupled {
-        // Coupled model: renew the internal state until it settles (the thermal crown moves
-        // the minimum film, so the reference film follows it).
+    // Coupled model: renew the internal state until it settles (the thermal crown moves the
+    // minimum film, so the reference film follows it).
+    while coupled && rounds < MAX_COUPLING_ROUNDS + 1 {
         let change = c.r.update()?;
         state = at(c.r);
         integrals = c.eval(&state, Start::Warm)?;

@@ -93,3 +93,35 @@ pub enum SolverError {
         residual: f64,
     },
 }
+
+impl From<crate::lubricant::LubricantError> for SolverError {
+    fn from(e: crate::lubricant::LubricantError) -> Self {
+        // The lubricant's messages are full sentences; embedded after "invalid design:" they
+        // read better in lower case without the closing full stop.
+        let text = e.to_string();
+        let mut chars = text.trim_end_matches('.').chars();
+        let text = match chars.next() {
+            Some(first) => first.to_lowercase().chain(chars).collect(),
+            None => String::new(),
+        };
+        SolverError::Input(InputError::Inconsistent(text))
+    }
+}
+
+/// Checks a length given in metres against a range, with the message in micrometres.
+pub(crate) fn within_um(what: &str, value_m: f64, lo_m: f64, hi_m: f64) -> Result<(), InputError> {
+    if value_m.is_finite() && value_m >= lo_m && value_m <= hi_m {
+        Ok(())
+    } else {
+        Err(InputError::Inconsistent(format!(
+            "{what} must lie between {:.0} and {:.0} µm (got {} µm)",
+            lo_m * 1e6,
+            hi_m * 1e6,
+            if value_m.is_finite() {
+                format!("{:.3}", value_m * 1e6)
+            } else {
+                "no number".into()
+            }
+        )))
+    }
+}

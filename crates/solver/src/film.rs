@@ -103,7 +103,7 @@ impl Support {
                 taper_depth,
             } => {
                 within("taper fraction of the arc", taper_fraction, 0.05, 1.0)?;
-                within("taper depth", taper_depth, 0.0, 0.01)
+                crate::error::within_um("the taper depth", taper_depth, 0.0, 1e-3)
             }
             Support::Flat => Ok(()),
         }

@@ -534,37 +534,62 @@ pub(crate) fn smooth(
     omega: f64,
     mask: Option<&[bool]>,
 ) {
+    // Monomorphised kernels keep the common (unconstrained, unmasked) sweep branch-free.
+    match (floor, mask) {
+        (None, None) => sweep::<false, false>(l, inv_diag, u, f, sweeps, 0.0, omega, &[]),
+        (Some(fl), None) => sweep::<true, false>(l, inv_diag, u, f, sweeps, fl, omega, &[]),
+        (None, Some(m)) => sweep::<false, true>(l, inv_diag, u, f, sweeps, 0.0, omega, m),
+        (Some(fl), Some(m)) => sweep::<true, true>(l, inv_diag, u, f, sweeps, fl, omega, m),
+    }
+}
+
+#[allow(clippy::too_many_arguments)]
+#[inline(always)]
+fn sweep<const FLOOR: bool, const MASK: bool>(
+    l: &Level,
+    inv_diag: &[f64],
+    u: &mut [f64],
+    f: &[f64],
+    sweeps: usize,
+    floor: f64,
+    omega: f64,
+    mask: &[bool],
+) {
     let (nx, ny) = (l.grid.nx, l.grid.ny);
     let w = nx + 1;
-    let (ce, cn, id) = (&l.ce[..], &l.cn[..], inv_diag);
     for _ in 0..sweeps {
         for color in 0..2 {
             for j in 1..ny {
-                let start = if (1 + j) % 2 == color { 1 } else { 2 };
                 let row = j * w;
-                let mut k = row + start;
-                let end = row + nx;
-                while k < end {
-                    if mask.is_some_and(|m| m[k]) {
-                        k += 2;
+                // Rows j−1, j, j+1 as disjoint slices (lets the compiler drop bounds checks).
+                let (lo, rest) = u.split_at_mut(row);
+                let (cur, hi) = rest.split_at_mut(w);
+                let below = &lo[row - w..];
+                let above = &hi[..w];
+                let ce = &l.ce[row..row + w];
+                let cs = &l.cn[row - w..row];
+                let cn = &l.cn[row..row + w];
+                let id = &inv_diag[row..row + w];
+                let fr = &f[row..row + w];
+                let start = if (1 + j) % 2 == color { 1 } else { 2 };
+                let mut i = start;
+                while i < nx {
+                    if MASK && mask[row + i] {
+                        i += 2;
                         continue;
                     }
-                    let s = f[k]
-                        + ce[k] * u[k + 1]
-                        + ce[k - 1] * u[k - 1]
-                        + cn[k] * u[k + w]
-                        + cn[k - w] * u[k - w];
-                    let gs = s * id[k];
-                    let mut v = if omega == 1.0 {
-                        gs
-                    } else {
-                        u[k] + omega * (gs - u[k])
-                    };
-                    if let Some(fl) = floor {
-                        v = v.max(fl);
+                    let s = fr[i]
+                        + ce[i] * cur[i + 1]
+                        + ce[i - 1] * cur[i - 1]
+                        + cn[i] * above[i]
+                        + cs[i] * below[i];
+                    let gs = s * id[i];
+                    let mut v = cur[i] + omega * (gs - cur[i]);
+                    if FLOOR {
+                        v = v.max(floor);
                     }
-                    u[k] = v;
-                    k += 2;
+                    cur[i] = v;
+                    i += 2;
                 }
             }
         }

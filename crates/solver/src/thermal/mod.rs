@@ -295,7 +295,7 @@ impl FieldPad {
 }
 
 fn lub(e: crate::lubricant::LubricantError) -> SolverError {
-    SolverError::Input(InputError::Inconsistent(e.to_string()))
+    e.into()
 }
 
 impl FieldPad {
