@@ -1,0 +1,178 @@
+//! The multigrid pressure against a direct sparse solve of the same discrete system by a
+//! general-purpose linear-algebra library (`faer`, sparse Cholesky).
+//!
+//! The finest level exposes its face conductances and diagonal; the five-point matrix of the
+//! interior nodes is assembled here from them and factorised by `faer`. Without cavitation the
+//! multigrid solves exactly that linear system, so the two pressures must agree to the
+//! multigrid tolerance times the condition of the matrix.
+
+use faer::Side;
+use faer::linalg::solvers::Solve;
+use faer::prelude::*;
+use faer::sparse::{SparseColMat, Triplet};
+use padwright_solver::film::{FilmState, Support};
+use padwright_solver::geometry::{PadOutline, RunnerSpeed};
+use padwright_solver::reynolds::{ReynoldsSettings, ReynoldsSolver, Start};
+use padwright_validation::pads;
+
+/// Assembles the interior five-point matrix of the solver's finest level and its
+/// right-hand side, solves with faer's sparse Cholesky, and returns the full nodal pressure.
+fn direct_solve(solver: &ReynoldsSolver) -> Vec<f64> {
+    let lvl = solver.level();
+    let g = &lvl.grid;
+    let w = g.nx + 1;
+    let nodes = pads::interior(lvl);
+    let mut number = vec![usize::MAX; g.len()];
+    for (q, &k) in nodes.iter().enumerate() {
+        number[k] = q;
+    }
+    let mut t = Vec::with_capacity(5 * nodes.len());
+    for (q, &k) in nodes.iter().enumerate() {
+        t.push(Triplet::new(q, q, 1.0 / lvl.inv_diag[k]));
+        for (nb, c) in [
+            (k + 1, lvl.ce[k]),
+            (k - 1, lvl.ce[k - 1]),
+            (k + w, lvl.cn[k]),
+            (k - w, lvl.cn[k - w]),
+        ] {
+            if number[nb] != usize::MAX {
+                t.push(Triplet::new(q, number[nb], -c));
+            }
+        }
+    }
+    let m = nodes.len();
+    let a = SparseColMat::<usize, f64>::try_new_from_triplets(m, m, &t).unwrap();
+    let b = Col::<f64>::from_fn(m, |q| solver.rhs()[nodes[q]]);
+    let llt = a
+        .sp_cholesky(Side::Lower)
+        .expect("the Reynolds matrix is SPD");
+    let x = llt.solve(&b);
+    let mut p = vec![0.0; g.len()];
+    for (q, &k) in nodes.iter().enumerate() {
+        p[k] = x[q];
+    }
+    p
+}
+
+/// Multigrid (cavitation off, relative residual 1e-12) against faer's sparse Cholesky for a
+/// sector tilting pad (pitch, roll and crown: a converging film with a smooth thickness
+/// variation), a sector tapered-land pad (kink on a grid line, non-uniform spacing) and a
+/// rectangular inclined pad with a non-uniform viscosity, on 65×65 nodes (and 33×97 for the
+/// rectangle: unequal node counts).
+///
+/// Source: faer 0.24 (general-purpose sparse linear algebra) as the reference solver.
+/// Tolerance: max |p_mg − p_direct| ≤ 1e-9 · max |p|. The error of a solution with relative
+/// residual ε is at most κ(A) ε; for these matrices κ ≈ (h_max/h_min)³ · 4(n−1)²/π² ≈ 1e4–1e5
+/// and ε = 1e-12, so ≤ 1e-7 in the worst case, while multigrid leaves a smooth-mode-free
+/// residual that costs much less (measured: ≤ 4e-13). The Cholesky solve itself is backward
+/// stable (error ~ κ·1e-16). The residual of the multigrid pressure against the matrix
+/// assembled here is also checked (≤ 1e-11 of ‖b‖), which confirms that the exposed
+/// conductances are the operator the multigrid solves.
+#[test]
+fn multigrid_matches_direct_sparse_cholesky() {
+    let sector = PadOutline::Sector {
+        inner_radius: 0.05,
+        outer_radius: 0.10,
+        arc: 50f64.to_radians(),
+    };
+    let omega = RunnerSpeed::Angular(314.0);
+    let cases = [
+        (
+            "sector tilting pad",
+            sector,
+            omega,
+            Support::TiltingPoint {
+                offset_along: 0.6,
+                offset_across: 0.5,
+            },
+            FilmState {
+                reference: 40e-6,
+                pitch: 5e-4,
+                roll: 2e-4,
+                crown: 3e-6,
+            },
+            (65, 65),
+            false,
+        ),
+        (
+            "sector tapered-land pad",
+            sector,
+            omega,
+            Support::TaperedLand {
+                taper_fraction: 0.8,
+                taper_depth: 30e-6,
+            },
+            FilmState {
+                reference: 20e-6,
+                ..Default::default()
+            },
+            (65, 65),
+            false,
+        ),
+        (
+            "rectangular inclined pad, variable viscosity",
+            PadOutline::Rectangle {
+                length: 0.1,
+                width: 0.3,
+            },
+            RunnerSpeed::Linear(10.0),
+            Support::TiltingLine { offset_along: 0.6 },
+            FilmState {
+                reference: 25e-6,
+                pitch: 2.5e-4,
+                ..Default::default()
+            },
+            (33, 97),
+            true,
+        ),
+    ];
+    for (name, outline, speed, support, state, (na, nc), variable_mu) in cases {
+        let settings = ReynoldsSettings {
+            tolerance: 1e-12,
+            cavitation: false,
+            ..Default::default()
+        };
+        let mut s = pads::solver(outline, speed, support, na, nc, settings);
+        let g = s.grid().clone();
+        let mu: Vec<f64> = (0..g.len())
+            .map(|k| {
+                let (i, j) = (k % (g.nx + 1), k / (g.nx + 1));
+                if variable_mu {
+                    0.03 * (1.0 - 0.4 * g.xi[i]) * (1.0 + 0.2 * g.eta[j])
+                } else {
+                    0.03
+                }
+            })
+            .collect();
+        let rep = s.solve(&state, &mu, Start::Cold).unwrap();
+        let direct = direct_solve(&s);
+        let p = s.pressure();
+        let scale = p.iter().fold(0.0f64, |m, x| m.max(x.abs()));
+        let diff = p
+            .iter()
+            .zip(&direct)
+            .fold(0.0f64, |m, (a, b)| m.max((a - b).abs()));
+        // Residual of the multigrid pressure with the matrix assembled from the level.
+        let ap = pads::apply_operator(s.level(), p);
+        let b = s.rhs();
+        let bnorm = b.iter().map(|x| x * x).sum::<f64>().sqrt();
+        let rnorm = pads::interior(s.level())
+            .iter()
+            .map(|&k| (b[k] - ap[k]).powi(2))
+            .sum::<f64>()
+            .sqrt();
+        eprintln!(
+            "{name}: {} cycles, residual {:.1e}; residual with the assembled matrix {:.1e}; \
+             max |p_mg − p_direct| / max |p| = {:.2e}",
+            rep.cycles,
+            rep.relative_residual,
+            rnorm / bnorm,
+            diff / scale
+        );
+        assert!(rnorm <= 1e-11 * bnorm);
+        assert!(diff <= 1e-9 * scale, "{name}: {}", diff / scale);
+        // A converging film builds positive pressure (cavitation being off, the sign is the
+        // solver's own: this guards against comparing two zero fields).
+        assert!(scale > 1e5);
+    }
+}
