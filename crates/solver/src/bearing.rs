@@ -125,11 +125,7 @@ impl BearingDesign {
         crate::error::within_um("the crown", self.crown, 0.0, 1e-3)?;
         // The runner speed must suit the outline, and the grid must be a valid size.
         PadFrame::new(self.outline, self.speed)?;
-        Grid::new(
-            self.numerics.nodes_along,
-            self.numerics.nodes_across,
-            None,
-        )?;
+        Grid::new(self.numerics.nodes_along, self.numerics.nodes_across, None)?;
         match self.duty {
             Duty::Load(w) => positive("axial load", w)?,
             Duty::MinFilm(h) => {

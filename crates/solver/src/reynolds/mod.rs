@@ -150,6 +150,13 @@ impl ReynoldsSolver {
         self.last
     }
 
+    /// Sets the pressure (Pa at the finest nodes) a following warm start begins from, e.g. the
+    /// solution of a nearby design.
+    pub fn set_initial_pressure(&mut self, p: &[f64]) {
+        self.mg.set_solution(p);
+        self.has_solution = true;
+    }
+
     /// Forgets the previous pressure so that the next warm start is cold.
     pub fn reset(&mut self) {
         self.has_solution = false;
@@ -196,11 +203,11 @@ impl ReynoldsSolver {
             .cavitation
             .then_some(self.settings.cavitation_pressure);
         self.mg.cycle = self.settings.cycle;
-        let bnorm = self.mg.rhs_norm();
         let cold = start == Start::Cold || !self.has_solution;
-        if bnorm == 0.0 {
+        if self.mg.rhs_norm() == 0.0 {
             // A parallel, isoviscous film: no source, ambient pressure everywhere.
-            self.mg.solution_mut().fill(0.0);
+            let n = self.grid().len();
+            self.mg.set_solution(&vec![0.0; n]);
             let rep = SolveReport {
                 cycles: 0,
                 relative_residual: 0.0,
@@ -211,29 +218,19 @@ impl ReynoldsSolver {
             self.last = Some(rep);
             return Ok(rep);
         }
-        if cold {
-            self.mg.solution_mut().fill(0.0);
-            self.mg.full_multigrid(floor);
-        } else if let Some(fl) = floor {
-            self.mg
-                .solution_mut()
-                .iter_mut()
-                .for_each(|x| *x = x.max(fl));
-        }
-        let mut cycles = 0;
-        let mut rel = self.mg.residual_norm(floor) / bnorm;
-        while rel > self.settings.tolerance {
-            if cycles >= self.settings.max_cycles || !rel.is_finite() {
-                self.has_solution = false;
-                return Err(SolverError::NotConverged {
-                    what: "pressure solution",
-                    iterations: cycles,
-                    residual: finite_or_zero(rel),
-                });
-            }
-            self.mg.cycle(floor);
-            cycles += 1;
-            rel = self.mg.residual_norm(floor) / bnorm;
+        let out = self.mg.solve(
+            floor,
+            self.settings.tolerance,
+            self.settings.max_cycles,
+            cold,
+        );
+        if !out.converged {
+            self.has_solution = false;
+            return Err(SolverError::NotConverged {
+                what: "pressure solution",
+                iterations: out.cycles,
+                residual: finite_or_zero(out.relative_residual),
+            });
         }
         let cavitated_nodes = match floor {
             Some(fl) => count_interior(self.grid(), self.mg.solution(), |p| p <= fl),
@@ -241,8 +238,8 @@ impl ReynoldsSolver {
         };
         self.has_solution = true;
         let rep = SolveReport {
-            cycles,
-            relative_residual: rel,
+            cycles: out.cycles,
+            relative_residual: out.relative_residual,
             cavitated_nodes,
             cold_start: cold,
         };

@@ -7,6 +7,14 @@
 //!   scaling (a coarse control volume sums the fine ones).
 //! * Smoother: red–black Gauss–Seidel, projected onto `p ≥ p_cav` on the level that carries the
 //!   full solution.
+//! * Cycle: a V-cycle without pre-smoothing ("sawtooth", V(0, ν)). After a red–black sweep the
+//!   residual of the black nodes is exactly zero, so each cycle starts by computing the residual
+//!   of the red nodes only; that residual is both the convergence check and what is restricted.
+//!   On the coarse levels the correction starts from zero, so their residual is their
+//!   right-hand side and costs nothing.
+//! * Memory: every level stores its node arrays in an even/odd-column split layout (each row
+//!   holds its even columns, then its odd columns). A colour of a red–black sweep is then a
+//!   unit-stride loop over one half-row, which the compiler vectorises.
 //! * Cavitation: the complementarity problem `p ≥ p_cav`, `A p − b ≥ 0`,
 //!   `(p − p_cav)(A p − b) = 0` is solved by projected multigrid in the manner of Brandt & Cryer
 //!   (SIAM J. Sci. Stat. Comput. 4, 1983): projected smoothing on the fine level; the coarse
@@ -22,40 +30,56 @@
 use super::banded::BandedCholesky;
 use super::stencil::Level;
 
-/// Interpolation weights from level `l + 1` to level `l` (fine), for odd fine columns and rows.
-#[derive(Clone, Debug, Default)]
-struct Transfer {
-    /// For odd fine column `i`: weight of the coarse node to its left, `(x_{i+1}−x_i)/(x_{i+1}−x_{i−1})`.
-    wxl: Vec<f64>,
-    /// For odd fine column `i`: weight of the coarse node to its right.
-    wxr: Vec<f64>,
-    /// Same across the motion, for odd fine rows.
-    wyl: Vec<f64>,
-    /// Same across the motion, for odd fine rows.
-    wyr: Vec<f64>,
+/// Even/odd-column split layout of the nodes of one level.
+#[derive(Clone, Copy, Debug)]
+struct Layout {
+    nx: usize,
+    ny: usize,
+    /// Nodes per row.
+    w: usize,
+    /// Even columns per row.
+    he: usize,
 }
 
-impl Transfer {
-    fn new(fine: &Level) -> Self {
-        let w = |x: &[f64]| {
-            let n = x.len() - 1;
-            let mut l = vec![0.0; n + 1];
-            let mut r = vec![0.0; n + 1];
-            for i in (1..n).step_by(2) {
-                let d = x[i + 1] - x[i - 1];
-                l[i] = (x[i + 1] - x[i]) / d;
-                r[i] = (x[i] - x[i - 1]) / d;
+impl Layout {
+    fn new(nx: usize, ny: usize) -> Self {
+        Layout {
+            nx,
+            ny,
+            w: nx + 1,
+            he: nx / 2 + 1,
+        }
+    }
+
+    /// Position of node `(i, j)`.
+    #[inline(always)]
+    fn pos(&self, i: usize, j: usize) -> usize {
+        j * self.w + if i % 2 == 0 { i / 2 } else { self.he + i / 2 }
+    }
+
+    fn len(&self) -> usize {
+        self.w * (self.ny + 1)
+    }
+
+    fn to_split(&self, natural: &[f64], split: &mut [f64]) {
+        for j in 0..=self.ny {
+            for i in 0..=self.nx {
+                split[self.pos(i, j)] = natural[j * self.w + i];
             }
-            (l, r)
-        };
-        let (wxl, wxr) = w(&fine.grid.xi);
-        let (wyl, wyr) = w(&fine.grid.eta);
-        Transfer { wxl, wxr, wyl, wyr }
+        }
+    }
+
+    fn to_natural(&self, split: &[f64], natural: &mut [f64]) {
+        for j in 0..=self.ny {
+            for i in 0..=self.nx {
+                natural[j * self.w + i] = split[self.pos(i, j)];
+            }
+        }
     }
 }
 
 /// Nodes of one level excluded from the coarse correction, with the distance fractions to the
-/// excluded region of the free nodes next to it (east, west, north, south).
+/// excluded region of the free nodes next to it (east, west, north, south). Split layout.
 #[derive(Clone, Debug, Default)]
 struct Exclusion {
     active: bool,
@@ -75,10 +99,77 @@ impl Exclusion {
     }
 }
 
+/// The operator and vectors of one level in split layout, plus the interpolation weights to
+/// the next coarser level.
+#[derive(Clone, Debug)]
+struct Ops {
+    lay: Layout,
+    ce: Vec<f64>,
+    cn: Vec<f64>,
+    id: Vec<f64>,
+    u: Vec<f64>,
+    f: Vec<f64>,
+    r: Vec<f64>,
+    excl: Exclusion,
+    /// For odd column `i = 2m + 1`: weight of coarse node `m` (left) and `m + 1` (right).
+    wl: Vec<f64>,
+    wr: Vec<f64>,
+    /// For odd row `j`: weight of coarse row `(j − 1)/2` (below) and `(j + 1)/2` (above).
+    wyl: Vec<f64>,
+    wyr: Vec<f64>,
+    /// True when the black nodes' residual is known to be zero (after an unconstrained,
+    /// unrelaxed red–black sweep), so that only the red residual needs computing.
+    black_clean: bool,
+}
+
+impl Ops {
+    fn new(level: &Level) -> Self {
+        let lay = Layout::new(level.grid.nx, level.grid.ny);
+        let n = lay.len();
+        let weights = |x: &[f64]| {
+            let nn = x.len() - 1;
+            let mut l = vec![0.0; nn + 1];
+            let mut r = vec![0.0; nn + 1];
+            for i in (1..nn).step_by(2) {
+                let d = x[i + 1] - x[i - 1];
+                l[i] = (x[i + 1] - x[i]) / d;
+                r[i] = (x[i] - x[i - 1]) / d;
+            }
+            (l, r)
+        };
+        let (xl, xr) = weights(&level.grid.xi);
+        let (wyl, wyr) = weights(&level.grid.eta);
+        let ho = lay.w - lay.he;
+        let wl = (0..ho).map(|m| xl[2 * m + 1]).collect();
+        let wr = (0..ho).map(|m| xr[2 * m + 1]).collect();
+        Ops {
+            lay,
+            ce: vec![0.0; n],
+            cn: vec![0.0; n],
+            id: vec![0.0; n],
+            u: vec![0.0; n],
+            f: vec![0.0; n],
+            r: vec![0.0; n],
+            excl: Exclusion::new(n),
+            wl,
+            wr,
+            wyl,
+            wyr,
+            black_clean: false,
+        }
+    }
+
+    fn load(&mut self, level: &Level) {
+        self.lay.to_split(&level.ce, &mut self.ce);
+        self.lay.to_split(&level.cn, &mut self.cn);
+        self.lay.to_split(&level.inv_diag, &mut self.id);
+    }
+}
+
 /// Cycle parameters.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct CycleSettings {
-    /// Smoothing sweeps before the coarse correction.
+    /// Smoothing sweeps before the coarse correction (0: sawtooth cycle).
     pub pre_sweeps: usize,
     /// Smoothing sweeps after the coarse correction.
     pub post_sweeps: usize,
@@ -91,27 +182,41 @@ pub struct CycleSettings {
 impl Default for CycleSettings {
     fn default() -> Self {
         CycleSettings {
-            pre_sweeps: 1,
-            post_sweeps: 1,
+            pre_sweeps: 0,
+            post_sweeps: 2,
             omega: 1.0,
             gamma: 1,
         }
     }
 }
 
+/// How a solve ended.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Outcome {
+    /// Cycles after the start.
+    pub cycles: usize,
+    /// Final residual norm over source norm.
+    pub relative_residual: f64,
+    /// Whether the tolerance was reached.
+    pub converged: bool,
+}
+
 /// The multigrid workspace: levels, their vectors and transfer weights. Reused between solves.
 #[derive(Clone, Debug)]
 pub struct Multigrid {
-    /// Grid levels, finest first.
+    /// Grid levels, finest first (natural layout, used for assembly).
     pub levels: Vec<Level>,
-    u: Vec<Vec<f64>>,
-    f: Vec<Vec<f64>>,
-    r: Vec<Vec<f64>>,
+    ops: Vec<Ops>,
     tmp: Vec<f64>,
-    xfer: Vec<Transfer>,
+    row: Vec<f64>,
     coarse: BandedCholesky,
     coarse_masked: BandedCholesky,
-    excl: Vec<Exclusion>,
+    nat_a: Vec<f64>,
+    nat_b: Vec<f64>,
+    /// Fine right-hand side in natural layout, m³/s.
+    rhs: Vec<f64>,
+    /// Fine solution in natural layout, Pa.
+    solution: Vec<f64>,
     /// Cycle parameters.
     pub cycle: CycleSettings,
 }
@@ -124,21 +229,19 @@ impl Multigrid {
         while let Some(g) = levels.last().unwrap().grid.coarsen() {
             levels.push(make_level(g));
         }
-        let xfer = levels[..levels.len() - 1]
-            .iter()
-            .map(Transfer::new)
-            .collect();
-        let sizes: Vec<usize> = levels.iter().map(|l| l.grid.len()).collect();
-        let tmp_len = levels[0].grid.len();
+        let ops: Vec<Ops> = levels.iter().map(Ops::new).collect();
+        let n = levels[0].grid.len();
+        let coarsest = levels.last().unwrap().grid.len();
         Multigrid {
-            u: sizes.iter().map(|&n| vec![0.0; n]).collect(),
-            f: sizes.iter().map(|&n| vec![0.0; n]).collect(),
-            r: sizes.iter().map(|&n| vec![0.0; n]).collect(),
-            tmp: vec![0.0; tmp_len],
-            excl: sizes.iter().map(|&n| Exclusion::new(n)).collect(),
-            xfer,
+            ops,
+            tmp: vec![0.0; n],
+            row: vec![0.0; n],
             coarse: BandedCholesky::default(),
             coarse_masked: BandedCholesky::default(),
+            nat_a: vec![0.0; coarsest],
+            nat_b: vec![0.0; coarsest],
+            rhs: vec![0.0; n],
+            solution: vec![0.0; n],
             cycle: CycleSettings::default(),
             levels,
         }
@@ -170,8 +273,9 @@ impl Multigrid {
     /// Returns the smallest face film on the finest level, m.
     pub fn assemble(&mut self, state: &crate::film::FilmState) -> f64 {
         let mut hmin = f64::INFINITY;
-        for (i, l) in self.levels.iter_mut().enumerate() {
+        for (i, (l, o)) in self.levels.iter_mut().zip(&mut self.ops).enumerate() {
             let h = l.assemble(state);
+            o.load(l);
             if i == 0 {
                 hmin = h;
             }
@@ -180,248 +284,283 @@ impl Multigrid {
         hmin
     }
 
-    /// The right-hand side of the finest level (m³/s), to be filled by the caller.
+    /// The right-hand side of the finest level (natural layout, m³/s), to be filled by the
+    /// caller before [`Multigrid::solve`].
     pub fn rhs_mut(&mut self) -> &mut [f64] {
-        &mut self.f[0]
+        &mut self.rhs
     }
 
     /// The right-hand side of the finest level, m³/s.
     pub fn rhs(&self) -> &[f64] {
-        &self.f[0]
+        &self.rhs
     }
 
     /// Fills the finest right-hand side from the assembled film (Couette source).
     pub fn set_source(&mut self) {
-        let (levels, f) = (&self.levels, &mut self.f);
-        levels[0].source(&mut f[0]);
+        self.levels[0].source(&mut self.rhs);
     }
 
-    /// The current finest-level solution (pressure, Pa).
+    /// The finest-level solution (pressure, Pa, natural layout) of the last solve.
     pub fn solution(&self) -> &[f64] {
-        &self.u[0]
+        &self.solution
     }
 
-    /// Mutable access to the finest-level solution (to set an initial guess).
-    pub fn solution_mut(&mut self) -> &mut [f64] {
-        &mut self.u[0]
+    /// Sets the finest-level solution (natural layout) as the start of the next solve.
+    pub fn set_solution(&mut self, p: &[f64]) {
+        self.solution.copy_from_slice(p);
+        let o = &mut self.ops[0];
+        o.lay.to_split(p, &mut o.u);
+        o.black_clean = false;
     }
 
-    /// Euclidean norm of the finest right-hand side over interior nodes.
+    /// Euclidean norm of the finest right-hand side.
     pub fn rhs_norm(&self) -> f64 {
-        self.f[0].iter().map(|x| x * x).sum::<f64>().sqrt()
+        self.rhs.iter().map(|x| x * x).sum::<f64>().sqrt()
     }
 
-    /// Euclidean norm of the (projected) residual of the finest level. With a floor,
-    /// nodes at the floor only count a residual that would lift them (`r > 0`).
-    pub fn residual_norm(&mut self, floor: Option<f64>) -> f64 {
-        let l = &self.levels[0];
-        l.residual(&self.u[0], &self.f[0], &mut self.r[0]);
-        projected_norm(&self.r[0], &self.u[0], floor)
+    /// Solves to `tolerance` (relative residual) within `max_cycles`, from zero by full
+    /// multigrid (`cold`) or from the current solution. With a floor, the solution satisfies
+    /// the cavitation condition `p ≥ floor`.
+    pub fn solve(
+        &mut self,
+        floor: Option<f64>,
+        tolerance: f64,
+        max_cycles: usize,
+        cold: bool,
+    ) -> Outcome {
+        let bnorm = self.rhs_norm();
+        {
+            let o = &mut self.ops[0];
+            o.lay.to_split(&self.rhs, &mut o.f);
+        }
+        if cold {
+            self.ops[0].u.fill(0.0);
+            self.full_multigrid(floor);
+        } else if let Some(fl) = floor {
+            self.ops[0].u.iter_mut().for_each(|x| *x = x.max(fl));
+            self.ops[0].black_clean = false;
+        }
+        let mut cycles = 0;
+        let outcome = loop {
+            // Pre-smoothing belongs to the cycle, but the residual after it is that of a valid
+            // iterate: check convergence there, at no extra cost.
+            if cycles > 0 || !cold {
+                self.pre_smooth_top(0, floor);
+            }
+            let rel = self.top_residual(0, floor) / bnorm;
+            if rel <= tolerance || cycles >= max_cycles || !rel.is_finite() {
+                break Outcome {
+                    cycles,
+                    relative_residual: rel,
+                    converged: rel <= tolerance,
+                };
+            }
+            self.cycle_from_residual(0, floor);
+            cycles += 1;
+        };
+        let o = &self.ops[0];
+        o.lay.to_natural(&o.u, &mut self.solution);
+        outcome
     }
 
-    /// One multigrid cycle on the finest level (which carries the solution).
-    pub fn cycle(&mut self, floor: Option<f64>) {
-        self.cycle_from(0, floor);
+    /// Residual of the top level `l` into its `r` (with the exclusion of cavitated nodes if
+    /// projected); returns the norm of the (projected) residual.
+    fn top_residual(&mut self, l: usize, floor: Option<f64>) -> f64 {
+        let o = &mut self.ops[l];
+        let red_only = o.black_clean && floor.is_none();
+        residual(o, red_only, false);
+        match floor {
+            None => o.r.iter().map(|x| x * x).sum::<f64>().sqrt(),
+            Some(fl) => {
+                let mut s = 0.0;
+                let mut any = false;
+                for k in 0..o.u.len() {
+                    let r = o.r[k];
+                    let at_floor = o.u[k] <= fl;
+                    let v = if at_floor { r.max(0.0) } else { r };
+                    s += v * v;
+                    // Cavitated nodes that stay cavitated take no coarse correction.
+                    let a = at_floor && r <= 0.0;
+                    o.excl.mask[k] = a;
+                    any |= a;
+                }
+                o.excl.active = any;
+                s.sqrt()
+            }
+        }
     }
 
     /// Full multigrid from a zero start: restricts the right-hand side to all levels, solves
-    /// the coarsest exactly and works up with one cycle per level.
-    pub fn full_multigrid(&mut self, floor: Option<f64>) {
+    /// the coarsest and works up with one cycle per level.
+    fn full_multigrid(&mut self, floor: Option<f64>) {
         let last = self.levels.len() - 1;
         for l in 0..last {
-            let (ff, fc) = self.f.split_at_mut(l + 1);
-            restrict(
-                &self.levels[l],
-                &self.xfer[l],
-                &ff[l],
-                &mut fc[0],
-                &mut self.tmp,
-            );
+            let (fo, co) = self.ops.split_at_mut(l + 1);
+            restrict(&fo[l], &fo[l].f, &mut co[0], &mut self.tmp);
         }
-        self.excl.iter_mut().for_each(|e| e.active = false);
-        self.u[last].fill(0.0);
+        for o in &mut self.ops {
+            o.excl.active = false;
+        }
+        self.ops[last].u.fill(0.0);
         self.solve_coarsest(floor, true);
         for l in (0..last).rev() {
-            self.u[l].fill(0.0);
             {
-                let (uf, uc) = self.u.split_at_mut(l + 1);
-                prolong_add(
-                    &self.levels[l],
-                    &self.xfer[l],
-                    &uc[0],
-                    &mut uf[l],
-                    None,
-                    &mut self.tmp,
-                );
+                let (fo, co) = self.ops.split_at_mut(l + 1);
+                fo[l].u.fill(0.0);
+                prolong_add(&mut fo[l], &co[0].u, false, &mut self.row);
+                fo[l].black_clean = false;
             }
             if let Some(fl) = floor {
-                self.u[l].iter_mut().for_each(|x| *x = x.max(fl));
+                self.ops[l].u.iter_mut().for_each(|x| *x = x.max(fl));
             }
-            self.cycle_from(l, floor);
+            self.pre_smooth_top(l, floor);
+            self.top_residual(l, floor);
+            self.cycle_from_residual(l, floor);
         }
+    }
+
+    /// Pre-smoothing of the top level (projected if `floor`).
+    fn pre_smooth_top(&mut self, l: usize, floor: Option<f64>) {
+        let c = self.cycle;
+        if c.pre_sweeps == 0 {
+            return;
+        }
+        let o = &mut self.ops[l];
+        smooth(o, c.pre_sweeps, floor, c.omega, false);
+        o.black_clean = floor.is_none() && c.omega == 1.0;
+    }
+
+    /// Completes a cycle on top level `top` whose residual (and, if projected, exclusion) has
+    /// just been computed by [`Multigrid::top_residual`].
+    fn cycle_from_residual(&mut self, top: usize, floor: Option<f64>) {
+        for o in &mut self.ops[top + 1..] {
+            o.excl.active = false;
+        }
+        if top == self.levels.len() - 1 {
+            self.solve_coarsest(floor, true);
+            return;
+        }
+        self.correct(top, top, floor);
+    }
+
+    /// Restricts the residual of `l` (already computed), corrects from the coarser levels and
+    /// post-smooths.
+    fn correct(&mut self, l: usize, top: usize, floor: Option<f64>) {
+        let c = self.cycle;
+        let fl = if l == top { floor } else { None };
+        let last = self.levels.len() - 1;
+        {
+            let o = &mut self.ops[l];
+            if o.excl.active {
+                for (r, &m) in o.r.iter_mut().zip(&o.excl.mask) {
+                    if m {
+                        *r = 0.0;
+                    }
+                }
+            }
+        }
+        {
+            let (fo, co) = self.ops.split_at_mut(l + 1);
+            let (fine, coarse) = (&fo[l], &mut co[0]);
+            if fine.excl.active {
+                coarsen_exclusion(fine, l == top, &self.levels[l + 1], coarse);
+            } else {
+                coarse.excl.active = false;
+            }
+            restrict(fine, &fine.r, coarse, &mut self.tmp);
+            if coarse.excl.active {
+                for (f, &m) in coarse.f.iter_mut().zip(&coarse.excl.mask) {
+                    if m {
+                        *f = 0.0;
+                    }
+                }
+            }
+            coarse.u.fill(0.0);
+            coarse.black_clean = false;
+        }
+        for visit in 0..c.gamma.max(1) {
+            if l + 1 == last {
+                self.solve_coarsest(None, false);
+            } else {
+                if visit == 0 {
+                    // Zero start: the residual is the right-hand side.
+                    let o = &mut self.ops[l + 1];
+                    o.r.copy_from_slice(&o.f);
+                } else {
+                    let o = &mut self.ops[l + 1];
+                    let corrected = o.excl.active;
+                    residual(o, o.black_clean && !corrected, corrected);
+                }
+                self.pre_smooth(l + 1);
+                self.correct(l + 1, top, floor);
+            }
+        }
+        {
+            let (fo, co) = self.ops.split_at_mut(l + 1);
+            let fine = &mut fo[l];
+            let use_mask = fine.excl.active;
+            prolong_add(fine, &co[0].u, use_mask, &mut self.row);
+        }
+        let o = &mut self.ops[l];
+        if let Some(flv) = fl {
+            o.u.iter_mut().for_each(|x| *x = x.max(flv));
+        }
+        let corrected = l != top && o.excl.active;
+        smooth(o, c.post_sweeps, fl, c.omega, corrected);
+        o.black_clean = c.post_sweeps > 0 && fl.is_none() && !corrected && c.omega == 1.0;
+    }
+
+    fn pre_smooth(&mut self, l: usize) {
+        let c = self.cycle;
+        if c.pre_sweeps == 0 {
+            return;
+        }
+        let o = &mut self.ops[l];
+        let corrected = o.excl.active;
+        smooth(o, c.pre_sweeps, None, c.omega, corrected);
+        let red_only = c.omega == 1.0 && !corrected;
+        residual(o, red_only, corrected);
     }
 
     fn solve_coarsest(&mut self, floor: Option<f64>, is_top: bool) {
         let last = self.levels.len() - 1;
         let lvl = &self.levels[last];
+        let o = &mut self.ops[last];
+        let lay = o.lay;
+        lay.to_natural(&o.f, &mut self.nat_b);
         match floor {
             Some(fl) if is_top => {
                 // Full solution with the cavitation constraint: exact linear solve, clamp,
                 // then projected sweeps (the coarsest level is small).
-                if self.u[last].iter().all(|&x| x == 0.0) {
-                    self.coarse.solve(lvl, &self.f[last], &mut self.u[last]);
-                    self.u[last].iter_mut().for_each(|x| *x = x.max(fl));
+                if o.u.iter().all(|&x| x == 0.0) {
+                    self.coarse.solve(lvl, &self.nat_b, &mut self.nat_a);
+                    lay.to_split(&self.nat_a, &mut o.u);
+                    o.u.iter_mut().for_each(|x| *x = x.max(fl));
                 }
-                let sweeps = 4 * (lvl.grid.nx + lvl.grid.ny);
-                smooth(
-                    lvl,
-                    &lvl.inv_diag,
-                    &mut self.u[last],
-                    &self.f[last],
-                    sweeps,
-                    Some(fl),
-                    1.0,
-                    None,
-                );
+                let sweeps = 4 * (lay.nx + lay.ny);
+                smooth(o, sweeps, Some(fl), 1.0, false);
+                o.black_clean = false;
             }
-            _ if self.excl[last].active => {
-                let e = &self.excl[last];
-                self.coarse_masked
-                    .factor_masked(lvl, Some(&e.mask), &e.inv_diag);
-                self.coarse_masked
-                    .solve(lvl, &self.f[last], &mut self.u[last]);
+            _ if o.excl.active => {
+                // Masked solve: rows of excluded nodes become identities.
+                let mut mask = vec![false; lay.len()];
+                let mut idn = vec![0.0; lay.len()];
+                for j in 0..=lay.ny {
+                    for i in 0..=lay.nx {
+                        let k = lay.pos(i, j);
+                        mask[j * lay.w + i] = o.excl.mask[k];
+                        idn[j * lay.w + i] = o.excl.inv_diag[k];
+                    }
+                }
+                self.coarse_masked.factor_masked(lvl, Some(&mask), &idn);
+                self.coarse_masked.solve(lvl, &self.nat_b, &mut self.nat_a);
+                lay.to_split(&self.nat_a, &mut o.u);
             }
-            _ => self.coarse.solve(lvl, &self.f[last], &mut self.u[last]),
-        }
-    }
-
-    /// One cycle whose top level is `top` (its `u` is a full solution, projected if `floor`);
-    /// all coarser levels carry corrections.
-    fn cycle_from(&mut self, top: usize, floor: Option<f64>) {
-        self.excl.iter_mut().for_each(|e| e.active = false);
-        self.visit(top, top, floor);
-    }
-
-    fn visit(&mut self, l: usize, top: usize, floor: Option<f64>) {
-        let last = self.levels.len() - 1;
-        let fl = if l == top { floor } else { None };
-        if l == last {
-            self.solve_coarsest(fl, l == top);
-            return;
-        }
-        let c = self.cycle;
-        // Coarse levels with excluded nodes use the boundary-corrected diagonal.
-        let corrected = l != top && self.excl[l].active;
-        {
-            let lvl = &self.levels[l];
-            let (id, mask) = if corrected {
-                (&self.excl[l].inv_diag[..], Some(&self.excl[l].mask[..]))
-            } else {
-                (&lvl.inv_diag[..], None)
-            };
-            smooth(
-                lvl,
-                id,
-                &mut self.u[l],
-                &self.f[l],
-                c.pre_sweeps,
-                fl,
-                c.omega,
-                mask,
-            );
-            let id = if corrected {
-                &self.excl[l].inv_diag[..]
-            } else {
-                &lvl.inv_diag[..]
-            };
-            lvl.residual_with(&self.u[l], &self.f[l], &mut self.r[l], id);
-        }
-        if let Some(fl) = fl {
-            // Cavitated nodes that stay cavitated take no coarse correction.
-            let (u, r, e) = (&self.u[l], &mut self.r[l], &mut self.excl[l]);
-            let mut any = false;
-            for k in 0..u.len() {
-                let a = u[k] <= fl && r[k] <= 0.0;
-                e.mask[k] = a;
-                if a {
-                    r[k] = 0.0;
-                    any = true;
-                }
+            _ => {
+                self.coarse.solve(lvl, &self.nat_b, &mut self.nat_a);
+                lay.to_split(&self.nat_a, &mut o.u);
             }
-            e.active = any;
-        } else if corrected {
-            let (r, m) = (&mut self.r[l], &self.excl[l].mask);
-            r.iter_mut().zip(m).for_each(|(r, &m)| {
-                if m {
-                    *r = 0.0
-                }
-            });
         }
-        if self.excl[l].active {
-            let (ef, ec) = self.excl.split_at_mut(l + 1);
-            coarsen_exclusion(
-                &self.levels[l],
-                &ef[l],
-                l == top,
-                &self.levels[l + 1],
-                &mut ec[0],
-            );
-        } else {
-            self.excl[l + 1].active = false;
-        }
-        {
-            let (_, coarse_f) = self.f.split_at_mut(l + 1);
-            restrict(
-                &self.levels[l],
-                &self.xfer[l],
-                &self.r[l],
-                &mut coarse_f[0],
-                &mut self.tmp,
-            );
-        }
-        if self.excl[l + 1].active {
-            let (f, m) = (&mut self.f[l + 1], &self.excl[l + 1].mask);
-            f.iter_mut().zip(m).for_each(|(f, &m)| {
-                if m {
-                    *f = 0.0
-                }
-            });
-        }
-        self.u[l + 1].fill(0.0);
-        for _ in 0..c.gamma.max(1) {
-            self.visit(l + 1, top, floor);
-        }
-        {
-            let (uf, uc) = self.u.split_at_mut(l + 1);
-            let mask = self.excl[l].active.then_some(&self.excl[l].mask[..]);
-            prolong_add(
-                &self.levels[l],
-                &self.xfer[l],
-                &uc[0],
-                &mut uf[l],
-                mask,
-                &mut self.tmp,
-            );
-        }
-        if let Some(fl) = fl {
-            self.u[l].iter_mut().for_each(|x| *x = x.max(fl));
-        }
-        let lvl = &self.levels[l];
-        let (id, mask) = if corrected {
-            (&self.excl[l].inv_diag[..], Some(&self.excl[l].mask[..]))
-        } else {
-            (&lvl.inv_diag[..], None)
-        };
-        smooth(
-            lvl,
-            id,
-            &mut self.u[l],
-            &self.f[l],
-            c.post_sweeps,
-            fl,
-            c.omega,
-            mask,
-        );
     }
 }
 
@@ -430,55 +569,55 @@ impl Multigrid {
 /// distance fraction `θ` to the fine boundary and the conductance of that link scaled by `1/θ`
 /// in its diagonal. `fine_is_top`: the fine level's excluded nodes are exactly one spacing
 /// from their free neighbours (`θ = 1` there).
-fn coarsen_exclusion(
-    fine: &Level,
-    ef: &Exclusion,
-    fine_is_top: bool,
-    coarse: &Level,
-    ec: &mut Exclusion,
-) {
-    let (nx, ny) = (fine.grid.nx, fine.grid.ny);
-    let (cnx, cny) = (nx / 2, ny / 2);
-    let (wf, wc) = (nx + 1, cnx + 1);
-    let mf = &ef.mask;
+fn coarsen_exclusion(fine: &Ops, fine_is_top: bool, coarse_level: &Level, coarse: &mut Ops) {
+    let (fl, cl) = (fine.lay, coarse.lay);
+    let ef = &fine.excl;
     let th = |d: usize, k: usize| if fine_is_top { 1.0 } else { ef.theta[d][k] };
+    let ec = &mut coarse.excl;
     ec.mask.fill(false);
     let mut any = false;
-    for jc in 1..cny {
-        for ic in 1..cnx {
-            let m = mf[2 * jc * wf + 2 * ic];
-            ec.mask[jc * wc + ic] = m;
+    for jc in 1..cl.ny {
+        for ic in 1..cl.nx {
+            let m = ef.mask[fl.pos(2 * ic, 2 * jc)];
+            ec.mask[cl.pos(ic, jc)] = m;
             any |= m;
         }
     }
     ec.active = any;
-    ec.inv_diag.copy_from_slice(&coarse.inv_diag);
+    ec.inv_diag.copy_from_slice(&coarse.id);
     if !any {
         return;
     }
+    let wc = cl.w;
     // Directions: 0 east (+i), 1 west (−i), 2 north (+j), 3 south (−j).
-    for jc in 1..cny {
-        for ic in 1..cnx {
-            let kc = jc * wc + ic;
+    for jc in 1..cl.ny {
+        for ic in 1..cl.nx {
+            let kc = cl.pos(ic, jc);
             if ec.mask[kc] {
                 continue;
             }
-            let kf = 2 * jc * wf + 2 * ic;
-            let mut diag = 1.0 / coarse.inv_diag[kc];
+            let (i, j) = (2 * ic, 2 * jc);
+            let kf = fl.pos(i, j);
+            let mut diag = 1.0 / coarse.id[kc];
             let mut touched = false;
             for d in 0..4 {
-                let (sf, sc) = match d {
-                    0 => (1isize, 1isize),
-                    1 => (-1, -1),
-                    2 => (wf as isize, wc as isize),
-                    _ => (-(wf as isize), -(wc as isize)),
+                let (di, dj): (isize, isize) = match d {
+                    0 => (1, 0),
+                    1 => (-1, 0),
+                    2 => (0, 1),
+                    _ => (0, -1),
                 };
-                let f1 = (kf as isize + sf) as usize;
-                let f2 = (kf as isize + 2 * sf) as usize;
-                let c1 = (kc as isize + sc) as usize;
-                let theta = if mf[f1] {
+                let at = |s: isize| {
+                    fl.pos(
+                        (i as isize + s * di) as usize,
+                        (j as isize + s * dj) as usize,
+                    )
+                };
+                let (f1, f2) = (at(1), at(2));
+                let c1 = cl.pos((ic as isize + di) as usize, (jc as isize + dj) as usize);
+                let theta = if ef.mask[f1] {
                     0.5 * th(d, kf)
-                } else if mf[f2] {
+                } else if ef.mask[f2] {
                     0.5 * (1.0 + th(d, f1))
                 } else {
                     continue;
@@ -488,11 +627,13 @@ fn coarsen_exclusion(
                     continue;
                 }
                 ec.theta[d][kc] = theta;
+                // The conductance of the link in natural coarse indexing.
+                let kn = jc * wc + ic;
                 let g = match d {
-                    0 => coarse.ce[kc],
-                    1 => coarse.ce[kc - 1],
-                    2 => coarse.cn[kc],
-                    _ => coarse.cn[kc - wc],
+                    0 => coarse_level.ce[kn],
+                    1 => coarse_level.ce[kn - 1],
+                    2 => coarse_level.cn[kn],
+                    _ => coarse_level.cn[kn - wc],
                 };
                 diag += g * (1.0 / theta - 1.0);
                 touched = true;
@@ -504,167 +645,309 @@ fn coarsen_exclusion(
     }
 }
 
-/// Norm of a residual with nodes at the floor counting only a lifting residual.
-pub(crate) fn projected_norm(r: &[f64], u: &[f64], floor: Option<f64>) -> f64 {
-    match floor {
-        None => r.iter().map(|x| x * x).sum::<f64>().sqrt(),
-        Some(fl) => r
-            .iter()
-            .zip(u)
-            .map(|(&r, &u)| {
-                let v = if u <= fl { r.max(0.0) } else { r };
-                v * v
-            })
-            .sum::<f64>()
-            .sqrt(),
-    }
-}
-
-/// Red–black Gauss–Seidel sweeps of the five-point system on the interior nodes, projected on
-/// `u ≥ floor` if a floor is given; nodes flagged in `mask` are held fixed. Red nodes have
-/// `i + j` even.
-#[allow(clippy::too_many_arguments)]
-pub(crate) fn smooth(
-    l: &Level,
-    inv_diag: &[f64],
-    u: &mut [f64],
-    f: &[f64],
-    sweeps: usize,
-    floor: Option<f64>,
-    omega: f64,
-    mask: Option<&[bool]>,
-) {
-    // Monomorphised kernels keep the common (unconstrained, unmasked) sweep branch-free.
-    match (floor, mask) {
-        (None, None) => sweep::<false, false>(l, inv_diag, u, f, sweeps, 0.0, omega, &[]),
-        (Some(fl), None) => sweep::<true, false>(l, inv_diag, u, f, sweeps, fl, omega, &[]),
-        (None, Some(m)) => sweep::<false, true>(l, inv_diag, u, f, sweeps, 0.0, omega, m),
-        (Some(fl), Some(m)) => sweep::<true, true>(l, inv_diag, u, f, sweeps, fl, omega, m),
-    }
-}
-
-#[allow(clippy::too_many_arguments)]
+/// The interior nodes `m0..m1` of the even or odd half of a row, and where their west and east
+/// neighbours start in the other half: for the even half (`i = 2m`) the west neighbour
+/// `i − 1 = 2(m − 1) + 1` is odd-half entry `m − 1` and the east neighbour entry `m`; for the odd
+/// half (`i = 2m + 1`) they are even-half entries `m` and `m + 1`.
 #[inline(always)]
-fn sweep<const FLOOR: bool, const MASK: bool>(
-    l: &Level,
-    inv_diag: &[f64],
-    u: &mut [f64],
-    f: &[f64],
-    sweeps: usize,
-    floor: f64,
-    omega: f64,
-    mask: &[bool],
-) {
-    let (nx, ny) = (l.grid.nx, l.grid.ny);
-    let w = nx + 1;
+fn half_row(lay: &Layout, part_even: bool) -> (usize, usize, usize, usize) {
+    let nx = lay.nx;
+    if part_even {
+        // m from 1: west of m0 = 1 is odd entry 0, east is odd entry 1.
+        (1, (nx - 1) / 2 + 1, 0, 1)
+    } else {
+        // m from 0: west of m0 = 0 is even entry 0, east is even entry 1.
+        (0, (nx - 2) / 2 + 1, 0, 1)
+    }
+}
+
+/// Red–black Gauss–Seidel sweeps of the five-point system on the interior nodes (red:
+/// `i + j` even, first), projected on `u ≥ floor` if a floor is given; with `corrected`, the
+/// excluded nodes of the level are held fixed and the boundary-corrected diagonal is used.
+fn smooth(o: &mut Ops, sweeps: usize, floor: Option<f64>, omega: f64, corrected: bool) {
+    let Ops {
+        lay,
+        ce,
+        cn,
+        id,
+        u,
+        f,
+        excl,
+        ..
+    } = o;
+    let (id, mask): (&[f64], &[bool]) = if corrected {
+        (&excl.inv_diag, &excl.mask)
+    } else {
+        (id, &[])
+    };
+    let k = Kernel {
+        lay: *lay,
+        ce,
+        cn,
+        id,
+        f,
+        mask,
+    };
     for _ in 0..sweeps {
-        for color in 0..2 {
-            for j in 1..ny {
-                let row = j * w;
-                // Rows j−1, j, j+1 as disjoint slices (lets the compiler drop bounds checks).
-                let (lo, rest) = u.split_at_mut(row);
-                let (cur, hi) = rest.split_at_mut(w);
-                let below = &lo[row - w..];
-                let above = &hi[..w];
-                let ce = &l.ce[row..row + w];
-                let cs = &l.cn[row - w..row];
-                let cn = &l.cn[row..row + w];
-                let id = &inv_diag[row..row + w];
-                let fr = &f[row..row + w];
-                let start = if (1 + j) % 2 == color { 1 } else { 2 };
-                let mut i = start;
-                while i < nx {
-                    if MASK && mask[row + i] {
-                        i += 2;
-                        continue;
-                    }
-                    let s = fr[i]
-                        + ce[i] * cur[i + 1]
-                        + ce[i - 1] * cur[i - 1]
-                        + cn[i] * above[i]
-                        + cs[i] * below[i];
-                    let gs = s * id[i];
-                    let mut v = cur[i] + omega * (gs - cur[i]);
-                    if FLOOR {
-                        v = v.max(floor);
-                    }
-                    cur[i] = v;
-                    i += 2;
+        for colour in 0..2 {
+            match (floor, corrected) {
+                (None, false) => k.colour::<false, false>(u, colour, omega, 0.0),
+                (Some(fl), false) => k.colour::<true, false>(u, colour, omega, fl),
+                (None, true) => k.colour::<false, true>(u, colour, omega, 0.0),
+                (Some(fl), true) => k.colour::<true, true>(u, colour, omega, fl),
+            }
+        }
+    }
+}
+
+/// The read-only data of a sweep or residual over one level.
+struct Kernel<'a> {
+    lay: Layout,
+    ce: &'a [f64],
+    cn: &'a [f64],
+    id: &'a [f64],
+    f: &'a [f64],
+    mask: &'a [bool],
+}
+
+impl Kernel<'_> {
+    /// One colour of a red–black sweep over unit-stride half-rows.
+    #[inline(always)]
+    fn colour<const FLOOR: bool, const MASK: bool>(
+        &self,
+        u: &mut [f64],
+        colour: usize,
+        omega: f64,
+        floor: f64,
+    ) {
+        let lay = self.lay;
+        let (w, he) = (lay.w, lay.he);
+        for j in 1..lay.ny {
+            let part_even = (j + colour) % 2 == 0;
+            let (m0, m1, ws, es) = half_row(&lay, part_even);
+            if m1 <= m0 {
+                continue;
+            }
+            let n = m1 - m0;
+            let row = j * w;
+            let (self_off, side_off) = if part_even { (0, he) } else { (he, 0) };
+            let (lo, rest) = u.split_at_mut(row);
+            let (cur, hi) = rest.split_at_mut(w);
+            let (cur_e, cur_o) = cur.split_at_mut(he);
+            let (me, side): (&mut [f64], &[f64]) = if part_even {
+                (cur_e, cur_o)
+            } else {
+                (cur_o, cur_e)
+            };
+            let me = &mut me[m0..m1];
+            let west = &side[ws..ws + n];
+            let east = &side[es..es + n];
+            let s = self_off + m0;
+            let below = &lo[row - w + s..row - w + s + n];
+            let above = &hi[s..s + n];
+            let ce_e = &self.ce[row + s..row + s + n];
+            let ce_w = &self.ce[row + side_off + ws..row + side_off + ws + n];
+            let cn_n = &self.cn[row + s..row + s + n];
+            let cn_s = &self.cn[row - w + s..row - w + s + n];
+            let idr = &self.id[row + s..row + s + n];
+            let fr = &self.f[row + s..row + s + n];
+            let mk: &[bool] = if MASK {
+                &self.mask[row + s..row + s + n]
+            } else {
+                &[]
+            };
+            for k in 0..n {
+                let sum = fr[k]
+                    + ce_e[k] * east[k]
+                    + ce_w[k] * west[k]
+                    + cn_n[k] * above[k]
+                    + cn_s[k] * below[k];
+                let gs = sum * idr[k];
+                let mut v = me[k] + omega * (gs - me[k]);
+                if FLOOR {
+                    v = v.max(floor);
+                }
+                if MASK && mk[k] {
+                    v = me[k];
+                }
+                me[k] = v;
+            }
+        }
+    }
+
+    /// Residual `r = f − A u` of the interior nodes (boundary entries zero); with
+    /// `red_only`, the black entries are set to zero without computing them.
+    fn residual(&self, u: &[f64], r: &mut [f64], red_only: bool) {
+        let lay = self.lay;
+        let (w, he) = (lay.w, lay.he);
+        r[..w].fill(0.0);
+        r[lay.ny * w..].fill(0.0);
+        for j in 1..lay.ny {
+            let row = j * w;
+            let rrow = &mut r[row..row + w];
+            rrow.fill(0.0);
+            for part_even in [true, false] {
+                // Red nodes: (i + j) even, i.e. the even half on even rows.
+                if red_only && part_even != (j % 2 == 0) {
+                    continue;
+                }
+                let (m0, m1, ws, es) = half_row(&lay, part_even);
+                if m1 <= m0 {
+                    continue;
+                }
+                let n = m1 - m0;
+                let (self_off, side_off) = if part_even { (0, he) } else { (he, 0) };
+                let s = self_off + m0;
+                let me = &u[row + s..row + s + n];
+                let west = &u[row + side_off + ws..row + side_off + ws + n];
+                let east = &u[row + side_off + es..row + side_off + es + n];
+                let below = &u[row - w + s..row - w + s + n];
+                let above = &u[row + w + s..row + w + s + n];
+                let ce_e = &self.ce[row + s..row + s + n];
+                let ce_w = &self.ce[row + side_off + ws..row + side_off + ws + n];
+                let cn_n = &self.cn[row + s..row + s + n];
+                let cn_s = &self.cn[row - w + s..row - w + s + n];
+                let idr = &self.id[row + s..row + s + n];
+                let fr = &self.f[row + s..row + s + n];
+                let out = &mut rrow[s..s + n];
+                for k in 0..n {
+                    let au = me[k] / idr[k]
+                        - ce_e[k] * east[k]
+                        - ce_w[k] * west[k]
+                        - cn_n[k] * above[k]
+                        - cn_s[k] * below[k];
+                    out[k] = fr[k] - au;
                 }
             }
         }
     }
 }
 
-/// Restriction `R = Pᵀ` of the fine interior residual `r` onto the coarse right-hand side `fc`
-/// (interior coarse nodes; boundary entries zero).
-fn restrict(fine: &Level, x: &Transfer, r: &[f64], fc: &mut [f64], tmp: &mut [f64]) {
-    let (nx, ny) = (fine.grid.nx, fine.grid.ny);
-    let (cnx, cny) = (nx / 2, ny / 2);
-    let wf = nx + 1;
-    let wc = cnx + 1;
-    // Along the motion: tmp(I, j), width wc.
-    for j in 1..ny {
-        let row = j * wf;
-        for ic in 1..cnx {
-            let i = 2 * ic;
-            tmp[j * wc + ic] =
-                r[row + i] + x.wxr[i - 1] * r[row + i - 1] + x.wxl[i + 1] * r[row + i + 1];
+/// Residual of a level into its `r`; `corrected` uses the boundary-corrected diagonal of a
+/// coarse level with excluded nodes (whose entries are then zeroed).
+fn residual(o: &mut Ops, red_only: bool, corrected: bool) {
+    let Ops {
+        lay,
+        ce,
+        cn,
+        id,
+        u,
+        f,
+        r,
+        excl,
+        ..
+    } = o;
+    let id: &[f64] = if corrected { &excl.inv_diag } else { id };
+    Kernel {
+        lay: *lay,
+        ce,
+        cn,
+        id,
+        f,
+        mask: &[],
+    }
+    .residual(u, r, red_only);
+    if corrected {
+        for (r, &m) in r.iter_mut().zip(&excl.mask) {
+            if m {
+                *r = 0.0;
+            }
         }
     }
-    fc.fill(0.0);
-    for jc in 1..cny {
+}
+
+/// Restriction `R = Pᵀ` of the fine residual (or right-hand side) `r` onto the coarse
+/// right-hand side (interior coarse nodes; boundary entries zero).
+fn restrict(fine: &Ops, r: &[f64], coarse: &mut Ops, tmp: &mut [f64]) {
+    let (fl, cl) = (fine.lay, coarse.lay);
+    let (w, he) = (fl.w, fl.he);
+    let wc = cl.w;
+    // Along the motion, fine row j → tmp(I, j) in natural coarse-column order:
+    // tmp(I) = r(2I) + wr(2I−1) r(2I−1) + wl(2I+1) r(2I+1).
+    for j in 1..fl.ny {
+        let row = j * w;
+        let re = &r[row..row + he];
+        let ro = &r[row + he..row + w];
+        let t = &mut tmp[j * wc..(j + 1) * wc];
+        for ic in 1..cl.nx {
+            t[ic] = re[ic] + fine.wr[ic - 1] * ro[ic - 1] + fine.wl[ic] * ro[ic];
+        }
+    }
+    coarse.f.fill(0.0);
+    for jc in 1..cl.ny {
         let j = 2 * jc;
-        for ic in 1..cnx {
-            fc[jc * wc + ic] = tmp[j * wc + ic]
-                + x.wyr[j - 1] * tmp[(j - 1) * wc + ic]
-                + x.wyl[j + 1] * tmp[(j + 1) * wc + ic];
+        let (a, b) = (fine.wyr[j - 1], fine.wyl[j + 1]);
+        for ic in 1..cl.nx {
+            coarse.f[cl.pos(ic, jc)] =
+                tmp[j * wc + ic] + a * tmp[(j - 1) * wc + ic] + b * tmp[(j + 1) * wc + ic];
         }
     }
 }
 
-/// Adds the bilinear interpolation of the coarse correction `uc` to the fine vector `uf` on
-/// interior nodes, skipping nodes flagged in `mask`.
-fn prolong_add(
-    fine: &Level,
-    x: &Transfer,
-    uc: &[f64],
-    uf: &mut [f64],
-    mask: Option<&[bool]>,
-    tmp: &mut [f64],
-) {
-    let (nx, ny) = (fine.grid.nx, fine.grid.ny);
-    let (cnx, cny) = (nx / 2, ny / 2);
-    let wf = nx + 1;
-    let wc = cnx + 1;
-    // Interpolate each coarse row along the motion: tmp(i, J), width wf.
+/// Adds the bilinear interpolation of the coarse correction `uc` to the fine `u` on interior
+/// nodes, skipping the fine level's excluded nodes if `use_mask`.
+fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) {
+    let Ops {
+        lay: fl,
+        u,
+        excl,
+        wl,
+        wr,
+        wyl,
+        wyr,
+        ..
+    } = fine;
+    let fl = *fl;
+    let mask = use_mask.then_some(&excl.mask[..]);
+    let (cnx, cny) = (fl.nx / 2, fl.ny / 2);
+    let cl = Layout::new(cnx, cny);
+    let (w, he) = (fl.w, fl.he);
+    let ho = w - he;
+    // Coarse rows in natural column order: crow(J)[I], width cnx + 1.
+    let cw = cnx + 1;
     for jc in 0..=cny {
-        let crow = jc * wc;
-        let trow = jc * wf;
-        for ic in 0..=cnx {
-            tmp[trow + 2 * ic] = uc[crow + ic];
-        }
-        for i in (1..nx).step_by(2) {
-            let ic = (i - 1) / 2;
-            tmp[trow + i] = x.wxl[i] * uc[crow + ic] + x.wxr[i] * uc[crow + ic + 1];
+        let out = &mut row_buf[jc * cw..(jc + 1) * cw];
+        for (ic, v) in out.iter_mut().enumerate() {
+            *v = uc[cl.pos(ic, jc)];
         }
     }
-    for j in 1..ny {
-        let row = j * wf;
-        if j % 2 == 0 {
-            let t = (j / 2) * wf;
-            for i in 1..nx {
-                if mask.is_none_or(|m| !m[row + i]) {
-                    uf[row + i] += tmp[t + i];
+    for j in 1..fl.ny {
+        let row = j * w;
+        // Interpolate the coarse row(s) onto this fine row: even and odd fine columns.
+        let (ja, jb, a, b) = if j % 2 == 0 {
+            (j / 2, j / 2, 1.0, 0.0)
+        } else {
+            ((j - 1) / 2, (j + 1) / 2, wyl[j], wyr[j])
+        };
+        let ca = &row_buf[ja * cw..(ja + 1) * cw];
+        let cb = &row_buf[jb * cw..(jb + 1) * cw];
+        let (ue, uo) = u[row..row + w].split_at_mut(he);
+        match mask {
+            None => {
+                // Even columns i = 2I (interior I = 1..cnx−1).
+                for ic in 1..cnx {
+                    ue[ic] += a * ca[ic] + b * cb[ic];
+                }
+                // Odd columns i = 2m + 1 (m = 0..cnx−1) between coarse m and m + 1.
+                for m in 0..ho.min(cnx) {
+                    let left = a * ca[m] + b * cb[m];
+                    let right = a * ca[m + 1] + b * cb[m + 1];
+                    uo[m] += wl[m] * left + wr[m] * right;
                 }
             }
-        } else {
-            let jc = (j - 1) / 2;
-            let (ta, tb) = (jc * wf, (jc + 1) * wf);
-            let (a, b) = (x.wyl[j], x.wyr[j]);
-            for i in 1..nx {
-                if mask.is_none_or(|m| !m[row + i]) {
-                    uf[row + i] += a * tmp[ta + i] + b * tmp[tb + i];
+            Some(mk) => {
+                let (me, mo) = mk[row..row + w].split_at(he);
+                for ic in 1..cnx {
+                    if !me[ic] {
+                        ue[ic] += a * ca[ic] + b * cb[ic];
+                    }
+                }
+                for m in 0..ho.min(cnx) {
+                    if !mo[m] {
+                        let left = a * ca[m] + b * cb[m];
+                        let right = a * ca[m + 1] + b * cb[m + 1];
+                        uo[m] += wl[m] * left + wr[m] * right;
+                    }
                 }
             }
         }

@@ -1,0 +1,334 @@
+//! Pressure-solver benchmarks on identical grids and matrices.
+//!
+//! For grids of 33², 65², 129² and 257² nodes this compares, all to the same relative residual
+//! `‖b − A p‖ / ‖b‖ ≤ 1e-8`:
+//!
+//! * (a) the project's solver (multigrid; cold start, warm start from a nearby design, and a
+//!   cavitating film);
+//! * (b) textbook red–black SOR with its near-optimal fixed factor `ω = 2/(1 + sin(π/(n−1)))`;
+//! * (c) a general-purpose sparse direct solver: faer's sparse Cholesky, symbolic analysis done
+//!   once outside the timing, numeric factorisation plus solve timed, one thread.
+//!
+//! Besides criterion's own report, a table of iterations, median time and *work units* (time
+//! divided by one fine-grid residual evaluation on the same grid) is printed at the end and
+//! written to `target/bench-reynolds.md`.
+
+use criterion::{BenchmarkId, Criterion};
+use faer::Mat;
+use faer::Side;
+use faer::linalg::solvers::Solve;
+use faer::sparse::linalg::solvers::{Llt, SymbolicLlt};
+use faer::sparse::{SparseColMat, Triplet};
+use padwright_solver::film::{FilmModel, FilmState, Support};
+use padwright_solver::geometry::{PadFrame, PadOutline, RunnerSpeed};
+use padwright_solver::grid::Grid;
+use padwright_solver::reynolds::stencil::Level;
+use padwright_solver::reynolds::{ReynoldsSettings, ReynoldsSolver, Start};
+use std::hint::black_box;
+use std::time::{Duration, Instant};
+
+const TOL: f64 = 1e-8;
+const SIZES: [usize; 4] = [33, 65, 129, 257];
+
+/// A sector pad of usual proportions on a point pivot (bench data, invented).
+fn solver(n: usize, support: Support, cavitation: bool) -> ReynoldsSolver {
+    let o = PadOutline::Sector {
+        inner_radius: 0.06,
+        outer_radius: 0.12,
+        arc: 45f64.to_radians(),
+    };
+    let frame = PadFrame::new(
+        o,
+        RunnerSpeed::Angular(3000.0 * std::f64::consts::PI / 30.0),
+    )
+    .unwrap();
+    let film = FilmModel::new(o, support).unwrap();
+    let settings = ReynoldsSettings {
+        tolerance: TOL,
+        cavitation,
+        ..Default::default()
+    };
+    ReynoldsSolver::new(frame, film, Grid::new(n, n, None).unwrap(), settings)
+}
+
+fn tilting() -> Support {
+    Support::TiltingPoint {
+        offset_along: 0.6,
+        offset_across: 0.5,
+    }
+}
+
+fn state(h: f64) -> FilmState {
+    FilmState {
+        reference: h,
+        pitch: 3e-4,
+        roll: 5e-5,
+        crown: 0.0,
+    }
+}
+
+/// A crowned pad pivoted at mid-arc: the film converges then diverges, so about half of the
+/// pad cavitates.
+fn cavitating_state() -> FilmState {
+    FilmState {
+        reference: 25e-6,
+        pitch: 1e-4,
+        roll: 0.0,
+        crown: 15e-6,
+    }
+}
+
+fn rel_residual(l: &Level, p: &[f64], b: &[f64], r: &mut [f64]) -> f64 {
+    l.residual(p, b, r);
+    let rn: f64 = r.iter().map(|x| x * x).sum::<f64>().sqrt();
+    let bn: f64 = b.iter().map(|x| x * x).sum::<f64>().sqrt();
+    rn / bn
+}
+
+/// Textbook red–black SOR on the same five-point system; the residual is checked every ten
+/// sweeps (its cost is included). Returns the sweeps used.
+fn sor(l: &Level, b: &[f64], p: &mut [f64], r: &mut [f64]) -> usize {
+    let (nx, ny) = (l.grid.nx, l.grid.ny);
+    let n = nx.max(ny) + 1;
+    let omega = 2.0 / (1.0 + (std::f64::consts::PI / (n as f64 - 1.0)).sin());
+    let w = nx + 1;
+    p.fill(0.0);
+    let mut sweeps = 0;
+    loop {
+        for _ in 0..10 {
+            for color in 0..2 {
+                for j in 1..ny {
+                    let start = if (1 + j) % 2 == color { 1 } else { 2 };
+                    let mut k = j * w + start;
+                    let end = j * w + nx;
+                    while k < end {
+                        let s = b[k]
+                            + l.ce[k] * p[k + 1]
+                            + l.ce[k - 1] * p[k - 1]
+                            + l.cn[k] * p[k + w]
+                            + l.cn[k - w] * p[k - w];
+                        p[k] += omega * (s * l.inv_diag[k] - p[k]);
+                        k += 2;
+                    }
+                }
+            }
+            sweeps += 1;
+        }
+        if rel_residual(l, p, b, r) <= TOL || sweeps > 100_000 {
+            return sweeps;
+        }
+    }
+}
+
+/// The interior system as a sparse matrix (lower triangle) and the index map.
+fn sparse_matrix(l: &Level) -> (SparseColMat<usize, f64>, Vec<usize>) {
+    let (nx, ny) = (l.grid.nx, l.grid.ny);
+    let w = nx + 1;
+    let mut index = vec![usize::MAX; l.grid.len()];
+    let mut nodes = Vec::new();
+    for j in 1..ny {
+        for i in 1..nx {
+            index[j * w + i] = nodes.len();
+            nodes.push(j * w + i);
+        }
+    }
+    let mut t = Vec::new();
+    for (q, &k) in nodes.iter().enumerate() {
+        t.push(Triplet::new(q, q, 1.0 / l.inv_diag[k]));
+        // Lower triangle: neighbours with a larger index (east and north).
+        if index[k + 1] != usize::MAX {
+            t.push(Triplet::new(index[k + 1], q, -l.ce[k]));
+        }
+        if index[k + w] != usize::MAX {
+            t.push(Triplet::new(index[k + w], q, -l.cn[k]));
+        }
+    }
+    let m = nodes.len();
+    (
+        SparseColMat::try_new_from_triplets(m, m, &t).unwrap(),
+        nodes,
+    )
+}
+
+fn median(mut v: Vec<Duration>) -> Duration {
+    v.sort();
+    v[v.len() / 2]
+}
+
+/// Median wall time of `f` over repetitions filling about `budget`.
+fn time<F: FnMut()>(mut f: F, budget: Duration) -> Duration {
+    f();
+    let mut v = Vec::new();
+    let start = Instant::now();
+    while v.len() < 5 || (start.elapsed() < budget && v.len() < 2000) {
+        let t = Instant::now();
+        f();
+        v.push(t.elapsed());
+    }
+    median(v)
+}
+
+struct Row {
+    n: usize,
+    method: &'static str,
+    iterations: String,
+    time: Duration,
+    work_units: f64,
+}
+
+fn main() {
+    let mut c = Criterion::default().configure_from_args();
+    let mut rows = Vec::new();
+    let budget = Duration::from_millis(800);
+    for n in SIZES {
+        let mut s = solver(n, tilting(), false);
+        s.assemble(&state(30e-6), &vec![0.02; n * n]).unwrap();
+        let lvl = s.level().clone();
+        let b = s.rhs().to_vec();
+        let mut r = vec![0.0; b.len()];
+        let p0 = vec![0.0; b.len()];
+        // Work unit: one fine-grid residual evaluation.
+        let wu = time(|| lvl.residual(black_box(&p0), &b, &mut r), budget);
+        let wu_s = wu.as_secs_f64();
+        let mut push = |method, iterations: String, t: Duration| {
+            rows.push(Row {
+                n,
+                method,
+                iterations,
+                time: t,
+                work_units: t.as_secs_f64() / wu_s,
+            })
+        };
+
+        // (a) cold start.
+        let t = time(
+            || {
+                s.solve_assembled(Start::Cold).unwrap();
+            },
+            budget,
+        );
+        let rep = s.solve_assembled(Start::Cold).unwrap();
+        assert!(rel_residual(&lvl, s.pressure(), &b, &mut r) <= TOL);
+        push("(a) multigrid, cold", format!("FMG + {}", rep.cycles), t);
+        let mut g = c.benchmark_group("pressure solve");
+        g.sample_size(20);
+        g.bench_function(BenchmarkId::new("(a) multigrid cold", n), |bch| {
+            bch.iter(|| s.solve_assembled(Start::Cold).unwrap())
+        });
+
+        // (a) warm start from the solution of a nearby design (pivot film 1 % thinner).
+        let mut near = solver(n, tilting(), false);
+        near.assemble(&state(29.7e-6), &vec![0.02; n * n]).unwrap();
+        near.solve_assembled(Start::Cold).unwrap();
+        let start_p = near.pressure().to_vec();
+        let mut cycles = 0;
+        let t = time(
+            || {
+                s.set_initial_pressure(&start_p);
+                cycles = s.solve_assembled(Start::Warm).unwrap().cycles;
+            },
+            budget,
+        );
+        push("(a) multigrid, warm", format!("{cycles}"), t);
+        g.bench_function(BenchmarkId::new("(a) multigrid warm", n), |bch| {
+            bch.iter(|| {
+                s.set_initial_pressure(&start_p);
+                s.solve_assembled(Start::Warm).unwrap()
+            })
+        });
+
+        // (a) with cavitation active.
+        let mut sc = solver(
+            n,
+            Support::TiltingPoint {
+                offset_along: 0.5,
+                offset_across: 0.5,
+            },
+            true,
+        );
+        sc.assemble(&cavitating_state(), &vec![0.02; n * n])
+            .unwrap();
+        let rep = sc.solve_assembled(Start::Cold).unwrap();
+        let t = time(
+            || {
+                sc.solve_assembled(Start::Cold).unwrap();
+            },
+            budget,
+        );
+        push(
+            "(a) multigrid, cavitating, cold",
+            format!(
+                "FMG + {} ({} % cavitated)",
+                rep.cycles,
+                100 * rep.cavitated_nodes / ((n - 2) * (n - 2))
+            ),
+            t,
+        );
+        g.bench_function(BenchmarkId::new("(a) multigrid cavitating", n), |bch| {
+            bch.iter(|| sc.solve_assembled(Start::Cold).unwrap())
+        });
+
+        // (b) red–black SOR.
+        let mut p = vec![0.0; b.len()];
+        let sweeps = sor(&lvl, &b, &mut p, &mut r);
+        let t = time(
+            || {
+                sor(&lvl, &b, &mut p, &mut r);
+            },
+            budget,
+        );
+        push("(b) red-black SOR", format!("{sweeps}"), t);
+        g.bench_function(BenchmarkId::new("(b) red-black SOR", n), |bch| {
+            bch.iter(|| sor(&lvl, &b, &mut p, &mut r))
+        });
+
+        // (c) faer sparse Cholesky, symbolic analysis reused.
+        let (a, nodes) = sparse_matrix(&lvl);
+        let symbolic = SymbolicLlt::try_new(a.symbolic(), Side::Lower).unwrap();
+        let rhs = Mat::from_fn(nodes.len(), 1, |q, _| b[nodes[q]]);
+        let direct = |out: &mut Mat<f64>| {
+            let llt =
+                Llt::try_new_with_symbolic(symbolic.clone(), a.as_ref(), Side::Lower).unwrap();
+            out.copy_from(&rhs);
+            llt.solve_in_place(out.as_mut());
+        };
+        let mut x = Mat::zeros(nodes.len(), 1);
+        direct(&mut x);
+        let mut px = vec![0.0; b.len()];
+        for (q, &k) in nodes.iter().enumerate() {
+            px[k] = x[(q, 0)];
+        }
+        assert!(rel_residual(&lvl, &px, &b, &mut r) <= TOL);
+        let t = time(|| direct(&mut x), budget);
+        push("(c) faer sparse Cholesky", "direct".into(), t);
+        g.bench_function(BenchmarkId::new("(c) sparse Cholesky", n), |bch| {
+            bch.iter(|| direct(&mut x))
+        });
+        g.finish();
+    }
+    c.final_summary();
+
+    let mut out = String::new();
+    out.push_str(
+        "| nodes | method | iterations | median time | work units | vs (a) cold |\n|---|---|---|---|---|---|\n",
+    );
+    for row in &rows {
+        let cold = rows
+            .iter()
+            .find(|x| x.n == row.n && x.method == "(a) multigrid, cold")
+            .unwrap();
+        out.push_str(&format!(
+            "| {}² | {} | {} | {:.3} ms | {:.1} | {:.1}× |\n",
+            row.n,
+            row.method,
+            row.iterations,
+            row.time.as_secs_f64() * 1e3,
+            row.work_units,
+            row.time.as_secs_f64() / cold.time.as_secs_f64()
+        ));
+    }
+    println!("\n{out}");
+    let path =
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../../target/bench-reynolds.md");
+    let _ = std::fs::write(path, &out);
+}
