@@ -55,6 +55,8 @@ pub struct Level {
     pub ce: Vec<f64>,
     /// North-face conductance `G_n`, m³/(Pa·s).
     pub cn: Vec<f64>,
+    /// Diagonal `Σ G` of the interior nodes, m³/(Pa·s) (zero elsewhere).
+    pub diag: Vec<f64>,
     /// Reciprocal of the diagonal `1/Σ G`, Pa·s/m³ (interior nodes; zero elsewhere).
     pub inv_diag: Vec<f64>,
     /// Film at the east faces, m.
@@ -118,6 +120,7 @@ impl Level {
             basis_n,
             ce: vec![0.0; n],
             cn: vec![0.0; n],
+            diag: vec![0.0; n],
             inv_diag: vec![0.0; n],
             he: vec![0.0; n],
             hn: vec![0.0; n],
@@ -159,6 +162,7 @@ impl Level {
             for i in 1..nx {
                 let k = j * w + i;
                 let d = self.ce[k] + self.ce[k - 1] + self.cn[k] + self.cn[k - w];
+                self.diag[k] = d;
                 self.inv_diag[k] = 1.0 / d;
             }
         }
@@ -182,11 +186,6 @@ impl Level {
 
     /// Residual `r = b − A p` on interior nodes (m³/s); boundary entries zero.
     pub fn residual(&self, p: &[f64], b: &[f64], r: &mut [f64]) {
-        self.residual_with(p, b, r, &self.inv_diag);
-    }
-
-    /// Residual with a replaced reciprocal diagonal `inv_diag`.
-    pub fn residual_with(&self, p: &[f64], b: &[f64], r: &mut [f64], inv_diag: &[f64]) {
         let (nx, ny) = (self.grid.nx, self.grid.ny);
         let w = nx + 1;
         r[..w].fill(0.0);
@@ -196,7 +195,7 @@ impl Level {
             r[row] = 0.0;
             r[row + nx] = 0.0;
             for k in row + 1..row + nx {
-                let ap = p[k] / inv_diag[k]
+                let ap = self.diag[k] * p[k]
                     - self.ce[k] * p[k + 1]
                     - self.ce[k - 1] * p[k - 1]
                     - self.cn[k] * p[k + w]
