@@ -21,8 +21,41 @@ pub mod report;
 pub mod templates;
 pub mod units;
 
-/// The caution printed with every result: this tool sizes, it does not certify.
-pub const CAUTION: &str = "CAUTION: preliminary sizing only. These figures come from a \
-simplified model with an assumed effective film temperature. Before relying on them, check the \
-design against the applicable standards, the bearing maker's data and the judgement of a \
-licensed engineer.";
+/// Builds a caution text around the sentence that names the temperature model.
+macro_rules! caution_text {
+    ($model:literal) => {
+        concat!(
+            "CAUTION: preliminary sizing only. These figures come from a simplified model (laminar \
+             film, rigid pads apart from any crown given or computed) ",
+            $model,
+            ". Before relying on them, check the design against the applicable standards, the \
+             bearing maker's data and the judgement of a licensed engineer."
+        )
+    };
+}
+
+/// The caution printed with results of the effective-temperature model: this tool sizes, it
+/// does not certify.
+pub const CAUTION: &str = caution_text!("with an effective film temperature assumed by the user");
+
+/// The caution printed with results of the bulk thermal model.
+pub const CAUTION_BULK: &str = caution_text!(
+    "with one film temperature from a bulk heat balance; its pad temperatures are rough \
+     estimates"
+);
+
+/// The caution printed with results of the film-temperature field model.
+pub const CAUTION_FIELD: &str = caution_text!(
+    "with a film-averaged temperature field from a simplified heat balance; real pad \
+     temperatures depend on details it leaves out"
+);
+
+/// The caution that goes with results of a design with film-temperature model `t`.
+pub fn caution(t: &padwright_solver::prelude::FilmTemperature) -> &'static str {
+    use padwright_solver::prelude::FilmTemperature;
+    match t {
+        FilmTemperature::Effective { .. } => CAUTION,
+        FilmTemperature::Bulk { .. } => CAUTION_BULK,
+        FilmTemperature::Field(_) => CAUTION_FIELD,
+    }
+}

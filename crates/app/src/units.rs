@@ -23,6 +23,8 @@ pub const W_PER_KW: f64 = 1e3;
 pub const PA_S_PER_MPA_S: f64 = 1e-3;
 /// Litres per minute in one cubic metre per second (1 m³/s = 1000 L × 60 s/min).
 pub const L_MIN_PER_M3_S: f64 = 60_000.0;
+/// Micrometres per metre per kelvin in one 1/K (a strain of 1 per kelvin is 10⁶ µm/m per K).
+pub const UM_PER_M_K_PER_PER_K: f64 = 1e6;
 /// Radians per second in one revolution per minute (2π rad / 60 s).
 pub const RAD_S_PER_RPM: f64 = std::f64::consts::PI / 30.0;
 
@@ -136,6 +138,16 @@ pub fn n_per_um_to_n_per_m(n_per_um: f64) -> f64 {
     n_per_um / M_PER_UM
 }
 
+/// A linear expansion coefficient in 1/K to µm/(m·K) (11.5e-6 1/K → 11.5 µm/(m·K)).
+pub fn per_k_to_um_per_m_k(per_k: f64) -> f64 {
+    per_k * UM_PER_M_K_PER_PER_K
+}
+
+/// A linear expansion coefficient in µm/(m·K) to 1/K.
+pub fn um_per_m_k_to_per_k(um_per_m_k: f64) -> f64 {
+    um_per_m_k / UM_PER_M_K_PER_PER_K
+}
+
 /// Percent to a fraction (60 % → 0.6).
 pub fn pct_to_fraction(pct: f64) -> f64 {
     pct / 100.0
@@ -226,6 +238,20 @@ mod tests {
         both_ways(c_to_k, k_to_c, 0.0, 273.15);
         both_ways(c_to_k, k_to_c, 60.0, 333.15);
         both_ways(c_to_k, k_to_c, -40.0, 233.15);
+    }
+
+    #[test]
+    fn expansion_coefficients() {
+        // Steel: 11.5 × 10⁻⁶ 1/K = 11.5 µm per metre per kelvin.
+        both_ways(per_k_to_um_per_m_k, um_per_m_k_to_per_k, 11.5e-6, 11.5);
+        // A bronze-like 18 µm/(m·K) = 1.8 × 10⁻⁵ 1/K.
+        both_ways(um_per_m_k_to_per_k, per_k_to_um_per_m_k, 18.0, 1.8e-5);
+        // A temperature difference is the same number in K and in °C: only levels shift.
+        assert_relative_eq!(
+            k_to_c(c_to_k(45.0) + 12.5) - 45.0,
+            12.5,
+            max_relative = 1e-12
+        );
     }
 
     #[test]

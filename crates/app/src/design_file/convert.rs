@@ -10,7 +10,11 @@ use super::*;
 use crate::units::*;
 
 /// A value error for `field`.
-fn bad(field: &str, value: impl std::fmt::Display, reason: impl Into<String>) -> DesignError {
+pub(super) fn bad(
+    field: &str,
+    value: impl std::fmt::Display,
+    reason: impl Into<String>,
+) -> DesignError {
     DesignError::BadValue {
         field: field.into(),
         value: value.to_string(),
@@ -29,7 +33,13 @@ fn split_hint(what: &str) -> (&str, &str) {
 /// Checks that a value is finite and inside `[lo, hi]`. `what` names the expected quantity with
 /// its unit and may end in a parenthesised hint: "a radius in millimetres (below 1 looks like
 /// metres)".
-fn in_range(field: &str, value: f64, lo: f64, hi: f64, what: &str) -> Result<f64, DesignError> {
+pub(super) fn in_range(
+    field: &str,
+    value: f64,
+    lo: f64,
+    hi: f64,
+    what: &str,
+) -> Result<f64, DesignError> {
     let (main, hint) = split_hint(what);
     if value.is_finite() && value >= lo && value <= hi {
         Ok(value)
@@ -203,17 +213,7 @@ impl DesignFile {
                 "the minimum film thickness in micrometres",
             )?)),
         };
-        let temperature = match self.film_temperature {
-            FilmTemperatureSpec::Effective { temperature_c } => FilmTemperature::Effective {
-                temperature: c_to_k(in_range(
-                    "film_temperature.temperature_c",
-                    temperature_c,
-                    -50.0,
-                    250.0,
-                    "the film temperature in °C (a value near 300 is probably in kelvin)",
-                )?),
-            },
-        };
+        let temperature = self.film_temperature.to_film_temperature()?;
         let design = BearingDesign {
             pad_count: self.pad_count,
             outline,
@@ -288,18 +288,7 @@ impl DesignFile {
                 min_film_um: tidy(m_to_um(h)),
             },
         };
-        let film_temperature = match design.temperature {
-            FilmTemperature::Effective { temperature } => FilmTemperatureSpec::Effective {
-                temperature_c: tidy(k_to_c(temperature)),
-            },
-            // The solver's thermal models are not yet part of the file format.
-            _ => {
-                return Err(DesignError::NotRepresentable(format!(
-                    "design-file format {FORMAT_VERSION} can only hold an effective film \
-                     temperature, not a thermal model"
-                )));
-            }
-        };
+        let film_temperature = FilmTemperatureSpec::from_film_temperature(&design.temperature)?;
         Ok(DesignFile {
             format_version: FORMAT_VERSION,
             title: title.to_string(),

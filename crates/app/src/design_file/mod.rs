@@ -6,6 +6,11 @@
 //! are refused, so a misspelt field is an error rather than a silently ignored value, and the
 //! file carries a `format_version` that is checked before anything else.
 //!
+//! The film temperature is one of three models: an `Effective` temperature set by the user,
+//! a `Bulk` heat balance, or the `Field` of the energy equation with optional heat paths (runner,
+//! conduction through the pad and its thermal crown). They were added to format version 1 as
+//! new variants, so older files stay valid.
+//!
 //! [`DesignFile::to_design`] converts to the solver's SI
 //! [`BearingDesign`](padwright_solver::prelude::BearingDesign) and validates it;
 //! [`DesignFile::from_design`] goes the other way, so a design survives a round trip through a
@@ -17,11 +22,15 @@ use padwright_solver::lubricant::{
     DEFAULT_TURBINE_OIL_VISCOSITY_INDEX,
 };
 use padwright_solver::prelude::Numerics;
+use padwright_solver::thermal::{
+    DEFAULT_CARRY_OVER, DEFAULT_RISE_FRACTION, DEFAULT_TEMPERATURE_TOLERANCE,
+};
 use serde::{Deserialize, Deserializer, Serialize};
 
 use crate::error::DesignError;
 
 mod convert;
+mod film_temperature;
 
 /// The design-file format version this program reads and writes.
 pub const FORMAT_VERSION: u32 = 1;
@@ -154,10 +163,11 @@ pub struct OilSpec {
     /// Volumetric thermal expansion of the density law, 1/K (optional).
     #[serde(default = "default_expansion")]
     pub thermal_expansion_per_k: f64,
-    /// Specific heat, J/(kg·K) (optional; kept for the thermal models).
+    /// Specific heat, J/(kg·K) (optional; used by the thermal models).
     #[serde(default = "default_specific_heat")]
     pub specific_heat_j_per_kg_k: f64,
-    /// Thermal conductivity, W/(m·K) (optional; kept for the thermal models).
+    /// Thermal conductivity, W/(m·K) (optional; recorded only: the thermal models neglect
+    /// conduction within the film).
     #[serde(default = "default_conductivity")]
     pub thermal_conductivity_w_per_m_k: f64,
     /// Below this temperature the results carry a warning, °C (optional; ignored for a
@@ -192,7 +202,8 @@ pub enum ViscosityInput {
     },
 }
 
-/// Where the film temperature comes from. More models will be added as variants.
+/// Where the film temperature comes from: set by the user, or from one of the two thermal
+/// models of the solver.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub enum FilmTemperatureSpec {
@@ -201,6 +212,69 @@ pub enum FilmTemperatureSpec {
         /// Effective film temperature, °C.
         temperature_c: f64,
     },
+    /// Bulk heat balance: the viscosity is taken at the mixed inlet temperature plus a share of
+    /// the adiabatic rise `P/(ρ c Q_in)`, one value for the whole pad.
+    Bulk {
+        /// Oil supply temperature, °C.
+        supply_temperature_c: f64,
+        /// Hot-oil carry-over: share of one pad's trailing-edge oil that enters the next pad,
+        /// % (optional, the solver's default).
+        #[serde(default = "default_carry_over_pct")]
+        carry_over_pct: f64,
+        /// Share of the adiabatic rise added to the inlet temperature, % (optional, the
+        /// solver's default).
+        #[serde(default = "default_share_of_rise_pct")]
+        share_of_rise_pct: f64,
+        /// Oil supplied to the whole bearing, L/min (optional; when given, the results warn if
+        /// the pads draw more fresh oil than this).
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        supplied_flow_l_min: Option<f64>,
+    },
+    /// Film-temperature field from the energy equation; the viscosity varies over the pad.
+    Field {
+        /// Oil supply temperature, °C.
+        supply_temperature_c: f64,
+        /// Hot-oil carry-over: share of one pad's trailing-edge oil that enters the next pad,
+        /// % (optional, the solver's default).
+        #[serde(default = "default_carry_over_pct")]
+        carry_over_pct: f64,
+        /// Oil supplied to the whole bearing, L/min (optional; when given, the results warn if
+        /// the pads draw more fresh oil than this).
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        supplied_flow_l_min: Option<f64>,
+        /// Heat-transfer coefficient from the film to the runner, W/(m²·K) (optional, 0: no
+        /// heat to the runner).
+        #[serde(default)]
+        runner_coefficient_w_per_m2_k: f64,
+        /// Runner surface temperature, °C (optional: the supply temperature).
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        runner_temperature_c: Option<f64>,
+        /// Heat conducted through the pad to the oil bath behind it, and the thermal crown it
+        /// causes (optional: no heat through the pad, no thermal crown).
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        pad_conduction: Option<PadConductionSpec>,
+        /// Stop when the film temperature changes by less than this between updates, K
+        /// (optional, the solver's default).
+        #[serde(default = "default_tolerance_k")]
+        tolerance_k: f64,
+    },
+}
+
+/// Conduction through the pad body to the oil bath behind it.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct PadConductionSpec {
+    /// Pad thickness from the sliding face to the back, mm.
+    pub thickness_mm: f64,
+    /// Thermal conductivity of the pad body, W/(m·K).
+    pub conductivity_w_per_m_k: f64,
+    /// Heat-transfer coefficient from the pad back to the bath, W/(m²·K).
+    pub back_coefficient_w_per_m2_k: f64,
+    /// Bath temperature behind the pad, °C.
+    pub bath_temperature_c: f64,
+    /// Linear thermal expansion coefficient of the pad body, µm/(m·K) (11.5 for steel); 0
+    /// leaves out the thermal crown.
+    pub expansion_um_per_m_k: f64,
 }
 
 /// Grid and solver settings. Every field is optional.
@@ -259,6 +333,15 @@ fn default_lowest_valid_c() -> f64 {
 fn default_vi() -> f64 {
     DEFAULT_TURBINE_OIL_VISCOSITY_INDEX
 }
+fn default_carry_over_pct() -> f64 {
+    crate::units::fraction_to_pct(DEFAULT_CARRY_OVER)
+}
+fn default_share_of_rise_pct() -> f64 {
+    crate::units::fraction_to_pct(DEFAULT_RISE_FRACTION)
+}
+fn default_tolerance_k() -> f64 {
+    DEFAULT_TEMPERATURE_TOLERANCE
+}
 
 /// Reads only `format_version`, ignoring everything else, so that a file of another version is
 /// named as such rather than failing on fields this version does not know.
@@ -270,6 +353,12 @@ struct VersionProbe {
 
 fn some_u32<'de, D: Deserializer<'de>>(d: D) -> Result<Option<u32>, D::Error> {
     u32::deserialize(d).map(Some)
+}
+
+/// RON settings of design files: an optional value is written plainly (`runner_temperature_c:
+/// 50.0`, not `Some(50.0)`), and a left-out optional value is absent.
+fn ron_options() -> ron::Options {
+    ron::Options::default().with_default_extension(ron::extensions::Extensions::IMPLICIT_SOME)
 }
 
 fn check_version(found: u32) -> Result<(), DesignError> {
@@ -298,7 +387,7 @@ impl DesignFile {
                 Some(v) => check_version(v)?,
             }
         }
-        let file: DesignFile = ron::from_str(text)?;
+        let file: DesignFile = ron_options().from_str(text)?;
         check_version(file.format_version)?;
         Ok(file)
     }
@@ -308,11 +397,12 @@ impl DesignFile {
         let config = ron::ser::PrettyConfig::new()
             .indentor("    ")
             .struct_names(false);
-        let body = ron::ser::to_string_pretty(self, config)?;
+        let body = ron_options().to_string_pretty(self, config)?;
         Ok(format!(
             "// Padwright design file (format_version {FORMAT_VERSION}). Each unit is in its \
              field name:\n// _mm millimetres, _um micrometres, _deg degrees, _pct percent, \
-             _kn kilonewtons, _c degrees Celsius.\n{body}\n"
+             _kn kilonewtons, _c degrees Celsius,\n// _k kelvin (temperature differences), \
+             _l_min litres per minute, _w_per_m2_k W/(m²·K).\n{body}\n"
         ))
     }
 }

@@ -11,7 +11,7 @@ use super::*;
 use crate::templates::Template;
 
 /// A complete file with a value in every field, each chosen so its SI value is known by hand.
-const FULL: &str = r#"(
+pub(super) const FULL: &str = r#"(
     format_version: 1,
     title: "conversion check",
     pad_count: 6,
@@ -58,11 +58,11 @@ const MINIMAL: &str = r#"(
     film_temperature: Effective(temperature_c: 40),
 )"#;
 
-fn design(text: &str) -> BearingDesign {
+pub(super) fn design(text: &str) -> BearingDesign {
     DesignFile::parse(text).unwrap().to_design().unwrap()
 }
 
-fn error(text: &str) -> DesignError {
+pub(super) fn error(text: &str) -> DesignError {
     match DesignFile::parse(text).and_then(|f| f.to_design()) {
         Ok(_) => panic!("expected an error"),
         Err(e) => e,
@@ -248,7 +248,7 @@ fn si_becomes_engineering_units() {
 }
 
 /// Every number of two designs agrees to 1e-13 relative (files keep 15 significant digits).
-fn assert_same_design(a: &BearingDesign, b: &BearingDesign) {
+pub(super) fn assert_same_design(a: &BearingDesign, b: &BearingDesign) {
     let close = |x: f64, y: f64| (x - y).abs() <= 1e-13 * x.abs().max(y.abs());
     let text = |d: &BearingDesign| format!("{d:?}");
     // Compare the debug texts number by number: same structure, numbers within tolerance.
@@ -271,7 +271,7 @@ fn assert_same_design(a: &BearingDesign, b: &BearingDesign) {
     }
 }
 
-fn round_trip(d: &BearingDesign) -> BearingDesign {
+pub(super) fn round_trip(d: &BearingDesign) -> BearingDesign {
     let text = DesignFile::from_design(d, "round trip")
         .unwrap()
         .to_ron()

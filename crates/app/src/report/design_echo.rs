@@ -1,6 +1,7 @@
 //! The design as echoed in the results (SI units), so a JSON file says what it is about.
 
 use padwright_solver::prelude::*;
+use padwright_solver::thermal::DEFAULT_TEMPERATURE_TOLERANCE;
 use serde::Serialize;
 
 use super::FiniteGuard;
@@ -103,6 +104,44 @@ pub struct OilEcho {
     pub density_15c_kg_m3: f64,
 }
 
+/// Conduction through the pad to its bath, SI.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct PadConductionEcho {
+    /// Pad thickness, m.
+    pub thickness_m: f64,
+    /// Thermal conductivity of the pad, W/(m·K).
+    pub conductivity_w_per_m_k: f64,
+    /// Heat-transfer coefficient from the pad back to the bath, W/(m²·K).
+    pub back_coefficient_w_per_m2_k: f64,
+    /// Bath temperature, K.
+    pub bath_temperature_k: f64,
+    /// Linear thermal expansion coefficient of the pad, 1/K.
+    pub expansion_per_k: f64,
+}
+
+/// The settings of a thermal model, SI.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct ThermalSettingsEcho {
+    /// Oil supply temperature, K.
+    pub supply_temperature_k: f64,
+    /// Hot-oil carry-over: fraction of one pad's trailing-edge oil entering the next, 0 to 1.
+    pub carry_over: f64,
+    /// Oil supplied to the whole bearing, m³/s (null if not given).
+    pub supplied_flow_m3_s: Option<f64>,
+    /// Bulk model: fraction of the adiabatic rise added to the inlet temperature (null for the
+    /// field model).
+    pub share_of_rise: Option<f64>,
+    /// Field model: heat-transfer coefficient to the runner, W/(m²·K) (null for the bulk
+    /// model).
+    pub runner_coefficient_w_per_m2_k: Option<f64>,
+    /// Field model: runner temperature, K (null: the supply temperature, or the bulk model).
+    pub runner_temperature_k: Option<f64>,
+    /// Field model: conduction through the pad (null: none, or the bulk model).
+    pub pad_conduction: Option<PadConductionEcho>,
+    /// Convergence tolerance of the film temperature, K.
+    pub tolerance_k: f64,
+}
+
 /// The design analysed, SI.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct DesignEcho {
@@ -126,10 +165,13 @@ pub struct DesignEcho {
     pub pad_area_m2: f64,
     /// The oil.
     pub oil: OilEcho,
-    /// Film temperature model: `"effective"` (a temperature set by the user).
+    /// Film temperature model: `"effective"` (a temperature set by the user), `"bulk"` (bulk
+    /// heat balance) or `"field"` (film-temperature field).
     pub temperature_model: &'static str,
     /// The effective film temperature set by the user, K (null for other models).
     pub effective_temperature_k: Option<f64>,
+    /// Settings of the thermal model (null for the effective-temperature model).
+    pub thermal_settings: Option<ThermalSettingsEcho>,
 }
 
 impl DesignEcho {
@@ -204,9 +246,10 @@ impl DesignEcho {
                 "effective",
                 Some(g.f("design.effective_temperature_k", temperature)),
             ),
-            // Thermal models are not yet part of the file format.
-            _ => ("thermal", None),
+            FilmTemperature::Bulk { .. } => ("bulk", None),
+            FilmTemperature::Field(_) => ("field", None),
         };
+        let thermal_settings = thermal_settings(g, &d.temperature);
         DesignEcho {
             title: title.to_string(),
             pad_count: d.pad_count,
@@ -229,6 +272,53 @@ impl DesignEcho {
             },
             temperature_model,
             effective_temperature_k,
+            thermal_settings,
         }
     }
+}
+
+/// The settings of a thermal model, checked finite (none for the effective temperature).
+fn thermal_settings(g: &mut FiniteGuard, t: &FilmTemperature) -> Option<ThermalSettingsEcho> {
+    const K: &str = "design.thermal_settings";
+    let (supply, share, field) = match t {
+        FilmTemperature::Effective { .. } => return None,
+        FilmTemperature::Bulk {
+            supply,
+            rise_fraction,
+        } => (supply, Some(*rise_fraction), None),
+        FilmTemperature::Field(f) => (&f.supply, None, Some(f)),
+    };
+    let heat = field.map(|f| f.heat);
+    Some(ThermalSettingsEcho {
+        supply_temperature_k: g.f(&format!("{K}.supply_temperature_k"), supply.temperature),
+        carry_over: g.f(&format!("{K}.carry_over"), supply.carry_over),
+        supplied_flow_m3_s: supply
+            .flow
+            .map(|q| g.f(&format!("{K}.supplied_flow_m3_s"), q)),
+        share_of_rise: share.map(|x| g.f(&format!("{K}.share_of_rise"), x)),
+        runner_coefficient_w_per_m2_k: heat.map(|h| {
+            g.f(
+                &format!("{K}.runner_coefficient_w_per_m2_k"),
+                h.runner_coefficient,
+            )
+        }),
+        runner_temperature_k: heat
+            .and_then(|h| h.runner_temperature)
+            .map(|x| g.f(&format!("{K}.runner_temperature_k"), x)),
+        pad_conduction: heat.and_then(|h| h.pad).map(|p| {
+            let k = |name: &str| format!("{K}.pad_conduction.{name}");
+            PadConductionEcho {
+                thickness_m: g.f(&k("thickness_m"), p.thickness),
+                conductivity_w_per_m_k: g.f(&k("conductivity_w_per_m_k"), p.conductivity),
+                back_coefficient_w_per_m2_k: g
+                    .f(&k("back_coefficient_w_per_m2_k"), p.back_coefficient),
+                bath_temperature_k: g.f(&k("bath_temperature_k"), p.bath_temperature),
+                expansion_per_k: g.f(&k("expansion_per_k"), p.expansion),
+            }
+        }),
+        tolerance_k: g.f(
+            &format!("{K}.tolerance_k"),
+            field.map_or(DEFAULT_TEMPERATURE_TOLERANCE, |f| f.tolerance),
+        ),
+    })
 }

@@ -7,19 +7,26 @@
 //! two can never disagree. Conversion to engineering units happens only in the table.
 //!
 //! The schema is identified by [`FORMAT_NAME`] and [`SCHEMA_VERSION`]; keys are only ever
-//! added within a schema version, never renamed or removed.
+//! added within a schema version, never renamed or removed, and a text value naming a kind or
+//! model may gain new values as models are added. The `thermal` object, `fields.temperature_k`,
+//! `design.thermal_settings` and the viscosity range were added within schema version 1.
 
 use padwright_solver::pad::Flows;
 use padwright_solver::prelude::*;
 use serde::Serialize;
 
-use crate::CAUTION;
+use crate::caution;
 use crate::error::AppError;
 
 mod design_echo;
 pub mod text;
+mod thermal;
 
-pub use design_echo::{DesignEcho, DutyEcho, OilEcho, OutlineEcho, SpeedEcho, SupportEcho};
+pub use design_echo::{
+    DesignEcho, DutyEcho, OilEcho, OutlineEcho, PadConductionEcho, SpeedEcho, SupportEcho,
+    ThermalSettingsEcho,
+};
+pub use thermal::{EnergyOut, HOT_PAD_WARNING_K, SENSOR_LOCATION, ThermalOut};
 
 /// Value of the `format` key of the JSON results.
 pub const FORMAT_NAME: &str = "padwright-results";
@@ -120,12 +127,21 @@ pub struct BearingOut {
 /// The viscosity the solution used.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct ViscosityOut {
-    /// `"effective_temperature"` or `"isoviscous"`.
+    /// `"effective_temperature"` (set by the user), `"bulk_temperature"` (bulk model),
+    /// `"temperature_field"` (field model: the values below are at the area-mean film
+    /// temperature) or `"isoviscous"` (constant-viscosity oil).
     pub basis: &'static str,
-    /// Temperature at which the viscosity was taken, K (null for an isoviscous oil).
+    /// Temperature at which the viscosity was taken, K (null for an isoviscous oil with the
+    /// effective-temperature model).
     pub temperature_k: Option<f64>,
     /// Dynamic viscosity, Pa·s.
     pub dynamic_viscosity_pa_s: f64,
+    /// Field model: the lowest dynamic viscosity on the pad, at its hottest point, Pa·s (null
+    /// for the other models, whose viscosity is uniform).
+    pub lowest_dynamic_viscosity_pa_s: Option<f64>,
+    /// Field model: the highest dynamic viscosity on the pad, at its coolest point, Pa·s (null
+    /// for the other models).
+    pub highest_dynamic_viscosity_pa_s: Option<f64>,
     /// Kinematic viscosity, m²/s.
     pub kinematic_viscosity_m2_s: f64,
     /// Density, kg/m³.
@@ -172,6 +188,9 @@ pub struct FieldsOut {
     pub pressure_pa: Vec<f64>,
     /// Film thickness at each node, m, row-major.
     pub film_m: Vec<f64>,
+    /// Film (and pad-surface) temperature at each node, K, row-major (null for the
+    /// effective-temperature model; uniform for the bulk model).
+    pub temperature_k: Option<Vec<f64>>,
 }
 
 /// Layout note of the field arrays.
@@ -197,6 +216,8 @@ pub struct Report {
     pub pad: PadOut,
     /// The viscosity used.
     pub viscosity: ViscosityOut,
+    /// Temperatures and heat (null for the effective-temperature model).
+    pub thermal: Option<ThermalOut>,
     /// Numerical facts.
     pub solver: SolverOut,
     /// Warnings and notes, in words.
@@ -293,14 +314,35 @@ impl Report {
             stiffness_n_per_m: g.f("bearing.stiffness_n_per_m", r.stiffness),
         };
         let v = &r.viscosity;
+        let oil = &design.lubricant;
+        // Field model: the viscosity range over the pad, from the extreme film temperatures.
+        let range = match (&design.temperature, &r.thermal) {
+            (FilmTemperature::Field(_), Some(th)) if !th.temperature.is_empty() => {
+                let (lo, hi) = th
+                    .temperature
+                    .iter()
+                    .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), &t| {
+                        (a.min(t), b.max(t))
+                    });
+                oil.dynamic_viscosity_pa_s(hi)
+                    .and_then(|a| Ok((a, oil.dynamic_viscosity_pa_s(lo)?)))
+                    .ok()
+            }
+            _ => None,
+        };
         let viscosity = ViscosityOut {
-            basis: if v.temperature.is_some() {
-                "effective_temperature"
-            } else {
-                "isoviscous"
+            basis: match design.temperature {
+                _ if oil.is_isoviscous() => "isoviscous",
+                FilmTemperature::Effective { .. } => "effective_temperature",
+                FilmTemperature::Bulk { .. } => "bulk_temperature",
+                FilmTemperature::Field(_) => "temperature_field",
             },
             temperature_k: v.temperature.map(|t| g.f("viscosity.temperature_k", t)),
             dynamic_viscosity_pa_s: g.f("viscosity.dynamic_viscosity_pa_s", v.dynamic_viscosity),
+            lowest_dynamic_viscosity_pa_s: range
+                .map(|(lo, _)| g.f("viscosity.lowest_dynamic_viscosity_pa_s", lo)),
+            highest_dynamic_viscosity_pa_s: range
+                .map(|(_, hi)| g.f("viscosity.highest_dynamic_viscosity_pa_s", hi)),
             kinematic_viscosity_m2_s: g.f(
                 "viscosity.kinematic_viscosity_m2_s",
                 v.dynamic_viscosity / v.density,
@@ -327,20 +369,33 @@ impl Report {
             eta: g.all("fields.eta", &r.fields.eta),
             pressure_pa: g.all("fields.pressure_pa", &r.fields.pressure),
             film_m: g.all("fields.film_m", &r.fields.film),
+            temperature_k: r
+                .thermal
+                .as_ref()
+                .map(|th| g.all("fields.temperature_k", &th.temperature)),
         };
+        let supplied = thermal::supply_of(&design.temperature).and_then(|s| s.flow);
+        let thermal = r
+            .thermal
+            .as_ref()
+            .map(|th| ThermalOut::new(&mut g, th, supplied));
+        let mut notes = r.notes.clone();
+        notes.extend(thermal.as_ref().and_then(ThermalOut::hot_pad_warning));
+        let caution = caution(&design.temperature);
         let design = DesignEcho::new(&mut g, title, design);
         g.finish()?;
         Ok(Report {
             format: FORMAT_NAME,
             schema_version: SCHEMA_VERSION,
             padwright_version: env!("CARGO_PKG_VERSION"),
-            caution: CAUTION,
+            caution,
             design,
             bearing,
             pad,
             viscosity,
+            thermal,
             solver,
-            notes: r.notes.clone(),
+            notes,
             fields,
         })
     }

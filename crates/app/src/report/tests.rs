@@ -8,18 +8,18 @@ use super::*;
 use crate::design_file::DesignFile;
 use crate::templates::Template;
 
-fn solved(t: Template) -> (BearingDesign, BearingResult) {
+pub(super) fn solved(t: Template) -> (BearingDesign, BearingResult) {
     let design = DesignFile::parse(t.text()).unwrap().to_design().unwrap();
     let result = analyze(&design).unwrap();
     (design, result)
 }
 
-fn json(report: &Report) -> Value {
+pub(super) fn json(report: &Report) -> Value {
     serde_json::from_str(&report.to_json().unwrap()).unwrap()
 }
 
 /// Looks up a dotted path such as `pad.flows.leading_edge_in_m3_s`.
-fn at<'a>(v: &'a Value, path: &str) -> &'a Value {
+pub(super) fn at<'a>(v: &'a Value, path: &str) -> &'a Value {
     path.split('.').fold(v, |v, k| {
         v.get(k).unwrap_or_else(|| panic!("missing key {path}"))
     })
@@ -80,13 +80,45 @@ fn json_has_the_documented_keys_in_si() {
         at(&v, "bearing.power_loss_w").as_f64(),
         Some(result.power_loss)
     );
-    assert_eq!(at(&v, "viscosity.temperature_k").as_f64(), Some(335.15));
+    assert_eq!(
+        at(&v, "viscosity.temperature_k").as_f64(),
+        result.viscosity.temperature
+    );
+    assert_eq!(at(&v, "viscosity.basis"), "temperature_field");
+    assert_eq!(at(&v, "design.temperature_model"), "field");
+    assert!(at(&v, "caution").as_str().unwrap().contains("preliminary"));
+}
+
+#[test]
+fn the_effective_temperature_model_has_no_thermal_results() {
+    // The rig demo sets its film temperature: 50 °C = 323.15 K.
+    let (design, result) = solved(Template::Rig);
+    let v = json(&Report::new("t", &design, &result).unwrap());
+    assert_eq!(at(&v, "viscosity.temperature_k").as_f64(), Some(323.15));
+    assert_eq!(
+        at(&v, "design.effective_temperature_k").as_f64(),
+        Some(323.15)
+    );
+    assert_eq!(at(&v, "viscosity.basis"), "effective_temperature");
+    assert_eq!(at(&v, "design.temperature_model"), "effective");
     let note = at(&v, "viscosity.note").as_str().unwrap();
     assert!(
         note.contains("effective film temperature set by the user"),
         "{note}"
     );
-    assert!(at(&v, "caution").as_str().unwrap().contains("preliminary"));
+    for key in [
+        "thermal",
+        "fields.temperature_k",
+        "design.thermal_settings",
+        "viscosity.lowest_dynamic_viscosity_pa_s",
+        "viscosity.highest_dynamic_viscosity_pa_s",
+    ] {
+        assert!(at(&v, key).is_null(), "{key}");
+    }
+    assert_eq!(at(&v, "caution"), crate::CAUTION);
+    let table = text::render(&Report::new("", &design, &result).unwrap());
+    assert!(!table.contains("\nTemperatures"), "{table}");
+    assert!(!table.contains("Heat balance"), "{table}");
 }
 
 #[test]
@@ -168,7 +200,7 @@ fn non_finite_values_are_refused_and_named() {
 }
 
 /// The table row that starts with `label`, split into its words.
-fn row(table: &str, label: &str) -> Vec<String> {
+pub(super) fn row(table: &str, label: &str) -> Vec<String> {
     let line = table
         .lines()
         .find(|l| l.trim_start().starts_with(label))
@@ -199,6 +231,17 @@ fn the_table_converts_si_to_engineering_units() {
     result.pad.cavitated_fraction = 0.125; // 12.5 %
     result.viscosity.dynamic_viscosity = 0.0162; // 16.2 mPa·s
     result.viscosity.temperature = Some(335.15); // 62 °C
+    let th = result.thermal.as_mut().unwrap();
+    th.supply_temperature = 318.15; // 45 °C
+    th.inlet_temperature = 325.65; // 52.5 °C
+    th.max_pad_temperature = 363.15; // 90 °C
+    th.sensor_temperature = 353.15; // 80 °C
+    th.adiabatic_rise = 12.5; // 12.5 K
+    th.thermal_crown = 1.5e-6; // 1.5 µm
+    th.fresh_oil_flow = 2e-4; // 12 L/min
+    th.energy.dissipated = 740.0; // 0.74 kW per pad, 5.92 kW for 8 pads
+    th.effective_temperature = 335.15; // 62 °C, shown again under "Viscosity used"
+    th.effective_viscosity = 0.0189; // 18.9 mPa·s
     let table = text::render(&Report::new("T", &design, &result).unwrap());
     assert_eq!(row(&table, "Minimum film thickness"), ["25.00", "µm"]);
     assert_eq!(row(&table, "Maximum film thickness"), ["71.00", "µm"]);
@@ -220,10 +263,22 @@ fn the_table_converts_si_to_engineering_units() {
     );
     assert_eq!(row(&table, "Cavitated area"), ["12.50", "%", "of", "pad"]);
     assert_eq!(row(&table, "Dynamic viscosity"), ["16.20", "mPa·s"]);
+    assert_eq!(row(&table, "Area-mean film temperature"), ["62.00", "°C"]);
+    assert_eq!(row(&table, "Oil supply temperature"), ["45.00", "°C"]);
+    assert_eq!(row(&table, "Mixed inlet temperature"), ["52.50", "°C"]);
+    assert_eq!(row(&table, "Hottest pad temperature"), ["90.00", "°C"]);
+    assert_eq!(row(&table, "Pad at 75 % arc, 75 % width"), ["80.00", "°C"]);
+    assert_eq!(row(&table, "Adiabatic rise P/(ρ c Q_in)"), ["12.50", "K"]);
+    assert_eq!(row(&table, "Thermal crown"), ["1.500", "µm"]);
     assert_eq!(
-        row(&table, "Effective film temperature (set)"),
-        ["62.00", "°C"]
+        row(&table, "Fresh oil drawn from the supply"),
+        ["12.00", "L/min"]
     );
+    assert_eq!(
+        row(&table, "Dissipated in the film"),
+        ["0.7400", "5.920", "kW"]
+    );
+    assert_eq!(row(&table, "viscosity there"), ["18.90", "mPa·s"]);
     // The design header is in engineering units too.
     assert!(
         table.contains("radii 75.00 to 140.0 mm, arc 36.00°"),

@@ -1,10 +1,23 @@
 //! The results as a readable table in engineering units: film in µm, pressure in MPa, load in
-//! kN, power in kW, flows in L/min, stiffness in N/µm, temperature in °C.
+//! kN, power in kW, flows in L/min, stiffness in N/µm, temperature in °C (temperature
+//! differences in K).
 
 use std::fmt::Write as _;
 
 use super::{DutyEcho, FlowsOut, OilEcho, OutlineEcho, PadPoint, Report, SpeedEcho, SupportEcho};
 use crate::units::*;
+
+mod temperatures;
+
+/// Formats a setting as typed: a whole number without decimals (`60`), anything else with
+/// about four significant digits.
+pub fn setting(v: f64) -> String {
+    if v.is_finite() && v == v.round() && v.abs() < 1e6 {
+        format!("{v:.0}")
+    } else {
+        num(v)
+    }
+}
 
 /// Formats a number with about four significant digits, in plain notation for the range met in
 /// bearing results and in scientific notation outside it.
@@ -186,13 +199,7 @@ pub fn render(r: &Report) -> String {
             format!("run at a minimum film of {} µm", num(m_to_um(min_film_m)))
         }
     };
-    let temperature = match d.effective_temperature_k {
-        Some(k) => format!(
-            "effective film temperature {} °C, set by the user",
-            num(k_to_c(k))
-        ),
-        None => "from the thermal model".into(),
-    };
+    let temperature = temperatures::describe_model(r);
     let pads = format!(
         "{} × {}",
         d.pad_count,
@@ -206,7 +213,7 @@ pub fn render(r: &Report) -> String {
         ("Oil", describe_oil(&d.oil)),
         ("Film", temperature),
     ] {
-        let _ = writeln!(t.0, "{label:<9}{value}");
+        let _ = writeln!(t.0, "{label:<9}{}", hang(&value, 79, 9));
     }
 
     let (p, b) = (&r.pad, &r.bearing);
@@ -293,24 +300,8 @@ pub fn render(r: &Report) -> String {
     t.heading("Oil flow through the pad edges");
     flows(&mut t, &p.flows, &b.flows);
 
-    t.heading("Viscosity used");
-    let v = &r.viscosity;
-    match v.temperature_k {
-        Some(k) => t.pad("Effective film temperature (set)", k_to_c(k), "°C"),
-        None => t.text("Film temperature", "not used"),
-    }
-    t.pad(
-        "Dynamic viscosity",
-        pa_s_to_mpa_s(v.dynamic_viscosity_pa_s),
-        "mPa·s",
-    );
-    t.pad(
-        "Kinematic viscosity",
-        m2_s_to_mm2_s(v.kinematic_viscosity_m2_s),
-        "mm²/s",
-    );
-    t.pad("Density", v.density_kg_m3, "kg/m³");
-    let _ = writeln!(t.0, "  Basis: {}", v.note);
+    temperatures::render(&mut t, r);
+    temperatures::viscosity(&mut t, r);
 
     let s = &r.solver;
     t.heading("Solution");
@@ -332,7 +323,7 @@ pub fn render(r: &Report) -> String {
     if !r.notes.is_empty() {
         t.heading("Notes");
         for n in &r.notes {
-            let _ = writeln!(t.0, "  - {n}");
+            let _ = writeln!(t.0, "  - {}", hang(n, 79, 4));
         }
     }
     let _ = writeln!(t.0, "\n{RULE}");
@@ -340,11 +331,33 @@ pub fn render(r: &Report) -> String {
     t.0
 }
 
-/// Wraps text at word boundaries to lines of at most `width` characters.
+/// Wraps text that starts `indent` characters into a line, to lines of at most `width`
+/// characters, indenting the lines after the first by `indent` spaces. Line breaks in `text`
+/// are kept.
+fn hang(text: &str, width: usize, indent: usize) -> String {
+    let pad = format!("\n{}", " ".repeat(indent));
+    text.lines()
+        .map(|l| wrap(l, width - indent).replace('\n', &pad))
+        .collect::<Vec<_>>()
+        .join(&pad)
+}
+
+/// Wraps text at word boundaries to lines of at most `width` characters. A unit that starts
+/// with `°` or `%` stays on the line of its number.
 fn wrap(text: &str, width: usize) -> String {
+    let mut words: Vec<String> = Vec::new();
+    for word in text.split_whitespace() {
+        match words.last_mut() {
+            Some(last) if word.starts_with(['°', '%']) => {
+                last.push(' ');
+                last.push_str(word);
+            }
+            _ => words.push(word.to_string()),
+        }
+    }
     let mut out = String::new();
     let mut line = 0;
-    for word in text.split_whitespace() {
+    for word in &words {
         let len = word.chars().count();
         if line > 0 && line + 1 + len > width {
             out.push('\n');
@@ -382,5 +395,23 @@ mod tests {
             w.split_whitespace().collect::<Vec<_>>(),
             crate::CAUTION.split_whitespace().collect::<Vec<_>>()
         );
+    }
+
+    #[test]
+    fn wrapping_keeps_units_with_their_numbers() {
+        let w = wrap("oil supplied at 45 °C with 60 % carry-over", 18);
+        assert_eq!(w, "oil supplied at\n45 °C with 60 %\ncarry-over");
+        // A hanging indent under a label, and the caller's own line breaks kept.
+        assert_eq!(
+            hang("first line\nsecond line is longer", 14, 4),
+            "first line\n    second\n    line is\n    longer"
+        );
+    }
+
+    #[test]
+    fn settings_print_as_typed() {
+        assert_eq!(setting(45.0), "45");
+        assert_eq!(setting(62.5), "62.50");
+        assert_eq!(setting(0.0), "0");
     }
 }

@@ -61,7 +61,7 @@ impl Layout {
         self.w * (self.ny + 1)
     }
 
-    fn to_split(&self, natural: &[f64], split: &mut [f64]) {
+    fn to_split(self, natural: &[f64], split: &mut [f64]) {
         for j in 0..=self.ny {
             for i in 0..=self.nx {
                 split[self.pos(i, j)] = natural[j * self.w + i];
@@ -69,7 +69,7 @@ impl Layout {
         }
     }
 
-    fn to_natural(&self, split: &[f64], natural: &mut [f64]) {
+    fn to_natural(self, split: &[f64], natural: &mut [f64]) {
         for j in 0..=self.ny {
             for i in 0..=self.nx {
                 natural[j * self.w + i] = split[self.pos(i, j)];
@@ -962,7 +962,7 @@ fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) 
         let (ja, jb, a, b) = if j % 2 == 0 {
             (j / 2, j / 2, 1.0, 0.0)
         } else {
-            ((j - 1) / 2, (j + 1) / 2, wyl[j], wyr[j])
+            ((j - 1) / 2, j.div_ceil(2), wyl[j], wyr[j])
         };
         let ca = &row_buf[ja * cw..(ja + 1) * cw];
         let cb = &row_buf[jb * cw..(jb + 1) * cw];
