@@ -64,6 +64,13 @@ pub trait FilmResponse {
     fn update_tolerance(&self) -> f64 {
         f64::INFINITY
     }
+    /// Largest number of renewals of the internal state in one equilibrium.
+    fn update_limit(&self) -> usize {
+        MAX_COUPLING_ROUNDS
+    }
+    /// Starts a new sequence of renewals (e.g. forgets the relaxation history after the film
+    /// state moved far).
+    fn restart_updates(&mut self) {}
     /// True if the pressure at a fixed film shape scales exactly as `1/h_ref²` (rigid,
     /// isoviscous, no crown).
     fn scales_inverse_square(&self) -> bool;
@@ -195,17 +202,18 @@ pub fn fixed_pad_at_load<R: FilmResponse>(
     settings: &EquilibriumSettings,
 ) -> Result<Equilibrium, SolverError> {
     let coupled = r.update_tolerance().is_finite();
-    let mut eq = fixed_frozen(r, load, crown, settings, !coupled)?;
+    let mut eq = fixed_frozen(r, load, crown, settings, !coupled, None)?;
     if !coupled {
         return Ok(eq);
     }
     let mut solves = eq.pressure_solves;
     let mut iterations = eq.iterations;
-    for _ in 0..MAX_COUPLING_ROUNDS {
+    for _ in 0..r.update_limit() {
         // The frozen solve leaves the solver at the equilibrium: renew the temperatures.
         let change = r.update()?;
         let last = change < r.update_tolerance();
-        eq = fixed_frozen(r, load, crown, settings, last)?;
+        let guess = r.min_film(&eq.state);
+        eq = fixed_frozen(r, load, crown, settings, last, Some(guess))?;
         solves += eq.pressure_solves;
         iterations += eq.iterations;
         if last {
@@ -230,6 +238,7 @@ fn fixed_frozen<R: FilmResponse>(
     crown: f64,
     settings: &EquilibriumSettings,
     with_stiffness: bool,
+    guess: Option<f64>,
 ) -> Result<Equilibrium, SolverError> {
     crate::geometry::positive("pad load", load)?;
     let off = fixed_offset(r, crown);
@@ -239,8 +248,108 @@ fn fixed_frozen<R: FilmResponse>(
         ..Default::default()
     };
     let mut c = Counted { r, solves: 0 };
-    // The smallest allowed film bounds the capacity.
     let h_lo = settings.min_film;
+    // With a nearby answer (a later coupling round), bracket around it first.
+    let mut bracket = None;
+    if let Some(g) = guess.filter(|&g| g > 1.5 * h_lo) {
+        let f_of = |c: &mut Counted<R>, h: f64| -> Result<f64, SolverError> {
+            let w = c.eval(&at(h), Start::Warm)?.load;
+            Ok(if w > 0.0 {
+                (w / load).ln()
+            } else {
+                f64::NEG_INFINITY
+            })
+        };
+        let (mut a, mut fa) = (g.ln(), f_of(&mut c, g)?);
+        let step = 0.05f64;
+        let dir = if fa > 0.0 { 1.0 } else { -1.0 };
+        for _ in 0..30 {
+            let b = a + dir * step;
+            if b.exp() <= h_lo {
+                break;
+            }
+            let fb = f_of(&mut c, b.exp())?;
+            if (fb > 0.0) != (fa > 0.0) {
+                bracket = Some(if dir > 0.0 {
+                    (a, fa, b, fb)
+                } else {
+                    (b, fb, a, fa)
+                });
+                break;
+            }
+            (a, fa) = (b, fb);
+        }
+    }
+    let (mut a, mut fa, mut b, mut fb) = match bracket {
+        Some(br) => br,
+        None => fixed_bracket(&mut c, &at, load, h_lo)?,
+    };
+    if !fb.is_finite() {
+        // Fall back to bisection until a finite value is found.
+        fb = -1.0;
+    }
+    // Illinois (modified regula falsi) on f(ln h) = ln W − ln W_target.
+    let mut side = 0i32;
+    for it in 0..settings.max_iterations {
+        let x = if fb.is_finite() && fa.is_finite() && fa != fb {
+            (a * fb - b * fa) / (fb - fa)
+        } else {
+            0.5 * (a + b)
+        };
+        let integrals = c.eval(&at(x.exp()), Start::Warm)?;
+        let fx = (integrals.load / load).ln();
+        if fx.abs() <= settings.tolerance * 0.5 || (b - a).abs() < 1e-14 {
+            let state = at(x.exp());
+            let (stiffness, integrals) = if with_stiffness {
+                let k = fixed_stiffness(&mut c, &state, load)?;
+                // Leave the solver holding the equilibrium pressure.
+                (k, c.eval(&state, Start::Warm)?)
+            } else {
+                (0.0, integrals)
+            };
+            return Ok(Equilibrium {
+                state,
+                integrals,
+                stiffness,
+                iterations: it + 1,
+                pressure_solves: c.solves,
+                load_error: (integrals.load / load - 1.0).abs(),
+                moment_error: 0.0,
+            });
+        }
+        if fx > 0.0 {
+            a = x;
+            fa = fx;
+            if side == 1 {
+                fb *= 0.5;
+            }
+            side = 1;
+        } else {
+            b = x;
+            fb = fx;
+            if side == -1 {
+                fa *= 0.5;
+            }
+            side = -1;
+        }
+    }
+    Err(SolverError::NotConverged {
+        what: "search for the film that carries the load",
+        iterations: settings.max_iterations,
+        residual: (b - a).abs(),
+    })
+}
+
+/// Brackets the film of a fixed pad from the smallest allowed film upward: `(ln h_a, f_a,
+/// ln h_b, f_b)` with `f = ln(W/W_target)` positive at `a` and negative at `b`; reports an
+/// overload or a film that builds no pressure.
+fn fixed_bracket<R: FilmResponse>(
+    c: &mut Counted<R>,
+    at: &impl Fn(f64) -> FilmState,
+    load: f64,
+    h_lo: f64,
+) -> Result<(f64, f64, f64, f64), SolverError> {
+    // The smallest allowed film bounds the capacity.
     let w_lo = c.eval(&at(h_lo), Start::Cold)?.load;
     if w_lo <= 0.0 {
         return Err(SolverError::NoLoadCapacity(no_wedge_message(
@@ -279,60 +388,7 @@ fn fixed_frozen<R: FilmResponse>(
             residual: fb,
         });
     }
-    if !fb.is_finite() {
-        // Fall back to bisection until a finite value is found.
-        fb = -1.0;
-    }
-    // Illinois (modified regula falsi) on f(ln h) = ln W − ln W_target.
-    let mut side = 0i32;
-    for it in 0..settings.max_iterations {
-        let x = if fb.is_finite() && fa.is_finite() && fa != fb {
-            (a * fb - b * fa) / (fb - fa)
-        } else {
-            0.5 * (a + b)
-        };
-        let integrals = c.eval(&at(x.exp()), Start::Warm)?;
-        let fx = (integrals.load / load).ln();
-        if fx.abs() <= settings.tolerance * 0.5 || (b - a).abs() < 1e-14 {
-            let state = at(x.exp());
-            let stiffness = if with_stiffness {
-                fixed_stiffness(&mut c, &state, load)?
-            } else {
-                0.0
-            };
-            // Leave the solver holding the equilibrium pressure.
-            let integrals_final = c.eval(&state, Start::Warm)?;
-            return Ok(Equilibrium {
-                state,
-                integrals: integrals_final,
-                stiffness,
-                iterations: it + 1,
-                pressure_solves: c.solves,
-                load_error: (integrals.load / load - 1.0).abs(),
-                moment_error: 0.0,
-            });
-        }
-        if fx > 0.0 {
-            a = x;
-            fa = fx;
-            if side == 1 {
-                fb *= 0.5;
-            }
-            side = 1;
-        } else {
-            b = x;
-            fb = fx;
-            if side == -1 {
-                fa *= 0.5;
-            }
-            side = -1;
-        }
-    }
-    Err(SolverError::NotConverged {
-        what: "search for the film that carries the load",
-        iterations: settings.max_iterations,
-        residual: (b - a).abs(),
-    })
+    Ok((a, fa, b, fb))
 }
 
 fn no_wedge_message(s: &Support) -> String {
@@ -476,14 +532,22 @@ pub fn tilting_pad<R: FilmResponse>(
                 break;
             }
         }
+        // The rounds below are a different fixed-point map: start their relaxation afresh.
+        c.r.restart_updates();
     }
-    let mut x = frozen_tilt(&mut c, &frame, x, load, scaling, settings, &mut n_it)?;
+    let mut cache = JacobianCache::default();
+    let mut x = frozen_tilt(
+        &mut c, &frame, x, load, scaling, settings, &mut n_it, &mut cache,
+    )?;
     if coupled {
         let mut done = false;
-        for _ in 0..MAX_COUPLING_ROUNDS {
-            c.eval(&frame.state(&x), Start::Warm)?;
+        for _ in 0..c.r.update_limit() {
+            // The frozen Newton ends on an evaluation at its solution, so the solver holds
+            // the pressure the renewal needs.
             let change = c.r.update()?;
-            x = frozen_tilt(&mut c, &frame, x, load, scaling, settings, &mut n_it)?;
+            x = frozen_tilt(
+                &mut c, &frame, x, load, scaling, settings, &mut n_it, &mut cache,
+            )?;
             if change < c.r.update_tolerance() {
                 done = true;
                 break;
@@ -527,7 +591,7 @@ pub fn tilting_pad<R: FilmResponse>(
     let stiffness = if scaling {
         2.0 * integrals.load / state.reference
     } else {
-        tilting_stiffness(&mut c, &frame, &x, load, settings)?
+        tilting_stiffness(&mut c, &frame, &x, load, settings, &mut cache)?
     };
     // Leave the solver holding the equilibrium pressure.
     let integrals = c.eval(&state, Start::Warm)?;
@@ -543,6 +607,7 @@ pub fn tilting_pad<R: FilmResponse>(
 }
 
 /// Equilibrium of the frozen response: Newton from `x`, with the pitch scan as fallback.
+#[allow(clippy::too_many_arguments)]
 fn frozen_tilt<R: FilmResponse>(
     c: &mut Counted<R>,
     frame: &TiltFrame,
@@ -551,14 +616,16 @@ fn frozen_tilt<R: FilmResponse>(
     scaling: bool,
     settings: &EquilibriumSettings,
     n_it: &mut usize,
+    cache: &mut JacobianCache,
 ) -> Result<Shape, SolverError> {
-    match newton_tilt(c, frame, x, load, scaling, settings, n_it) {
+    match newton_tilt(c, frame, x, load, scaling, settings, n_it, cache) {
         Ok(x) => Ok(x),
         Err(SolverError::NoEquilibrium { .. }) | Err(SolverError::NotConverged { .. }) => {
             // Newton could not find a root from this start: scan the pitch to either bracket
             // the equilibrium (and restart Newton there) or show that none exists.
             let start = scan_pitch(c, frame, x, load)?;
-            newton_tilt(c, frame, start, load, scaling, settings, n_it)
+            cache.jac = None;
+            newton_tilt(c, frame, start, load, scaling, settings, n_it, cache)
         }
         Err(e) => Err(e),
     }
@@ -571,11 +638,30 @@ fn tilting_stiffness<R: FilmResponse>(
     x: &Shape,
     load: f64,
     settings: &EquilibriumSettings,
+    cache: &mut JacobianCache,
 ) -> Result<f64, SolverError> {
     let eps = 0.01;
     let mut n = 0;
-    let up = newton_tilt(c, frame, *x, load * (1.0 + eps), false, settings, &mut n)?;
-    let dn = newton_tilt(c, frame, *x, load * (1.0 - eps), false, settings, &mut n)?;
+    let up = newton_tilt(
+        c,
+        frame,
+        *x,
+        load * (1.0 + eps),
+        false,
+        settings,
+        &mut n,
+        cache,
+    )?;
+    let dn = newton_tilt(
+        c,
+        frame,
+        *x,
+        load * (1.0 - eps),
+        false,
+        settings,
+        &mut n,
+        cache,
+    )?;
     let (hu, hd) = (up.ln_h.exp(), dn.ln_h.exp());
     Ok(2.0 * eps * load / (hd - hu))
 }
@@ -708,6 +794,14 @@ fn scan_pitch<R: FilmResponse>(
 }
 const FILM_RATIO_MIN: f64 = 0.01;
 
+/// A Jacobian kept between Newton iterations and between the rounds of a coupled
+/// equilibrium (the chord method): recomputed only when it stops giving fast progress.
+#[derive(Clone, Copy, Debug, Default)]
+struct JacobianCache {
+    jac: Option<([[f64; 3]; 3], usize)>,
+}
+
+#[allow(clippy::too_many_arguments)]
 fn newton_tilt<R: FilmResponse>(
     c: &mut Counted<R>,
     frame: &TiltFrame,
@@ -716,6 +810,7 @@ fn newton_tilt<R: FilmResponse>(
     scaling: bool,
     settings: &EquilibriumSettings,
     iterations: &mut usize,
+    cache: &mut JacobianCache,
 ) -> Result<Shape, SolverError> {
     // Active variables: 0 = ln h (unless scaling), 1 = a, 2 = g (unless line pivot).
     let mut vars: Vec<usize> = Vec::with_capacity(3);
@@ -761,6 +856,9 @@ fn newton_tilt<R: FilmResponse>(
     }
     let mut f = eval(c, &x)?.ok_or_else(|| no_eq("the pad builds no pressure".into()))?;
     let mut at_flat_bound = 0;
+    // A cached Jacobian is tried first; a fresh one is computed when it fails to make fast
+    // progress.
+    let mut want_fresh = !matches!(cache.jac, Some((_, m)) if m == n);
     for it in 0..settings.max_iterations {
         *iterations += 1;
         if converged(&f) {
@@ -769,25 +867,35 @@ fn newton_tilt<R: FilmResponse>(
             }
             return Ok(x);
         }
-        // Finite-difference Jacobian on the active variables.
-        let mut jac = [[0.0; 3]; 3];
-        for (col, &v) in vars.iter().enumerate() {
-            let x0 = get(&x, v);
-            let step = match v {
-                0 => 1e-5,
-                1 => 1e-5 * x0.abs().max(0.05),
-                _ => 1e-5 * (x0.abs().max(0.05)),
-            };
-            let mut xp = x;
-            // Step towards the interior near the lower bound of `a`.
-            set(&mut xp, v, x0 + step);
-            let fp = eval(c, &xp)?.ok_or_else(|| no_eq("the film closes while tilting".into()))?;
-            for (row, &w) in vars.iter().enumerate() {
-                jac[row][col] = (fp[w] - f[w]) / step;
+        let fresh = want_fresh;
+        let jac = if fresh {
+            // Finite-difference Jacobian on the active variables.
+            let mut jac = [[0.0; 3]; 3];
+            for (col, &v) in vars.iter().enumerate() {
+                let x0 = get(&x, v);
+                let step = match v {
+                    0 => 1e-5,
+                    _ => 1e-5 * x0.abs().max(0.05),
+                };
+                let mut xp = x;
+                set(&mut xp, v, x0 + step);
+                let fp =
+                    eval(c, &xp)?.ok_or_else(|| no_eq("the film closes while tilting".into()))?;
+                for (row, &w) in vars.iter().enumerate() {
+                    jac[row][col] = (fp[w] - f[w]) / step;
+                }
             }
-        }
+            cache.jac = Some((jac, n));
+            jac
+        } else {
+            cache.jac.map(|(j, _)| j).unwrap_or_default()
+        };
         let rhs: Vec<f64> = vars.iter().map(|&v| -f[v]).collect();
         let Some(dx) = solve_small(&jac, &rhs, n) else {
+            if !fresh {
+                want_fresh = true;
+                continue;
+            }
             return Err(no_eq(fold_reason()));
         };
         // Limit the step: ln h by 1, a by a factor of two either way, g by 0.5 + |g|.
@@ -832,9 +940,22 @@ fn newton_tilt<R: FilmResponse>(
                 accepted = true;
                 break;
             }
+            if !fresh {
+                // A stale Jacobian gets one full step only.
+                break;
+            }
             lam *= 0.5;
         }
-        if !accepted {
+        if accepted {
+            // Keep the Jacobian while it reduces the residual at least threefold per step.
+            want_fresh = norm(&f) > f0 / 3.0;
+            continue;
+        }
+        if !fresh {
+            want_fresh = true;
+            continue;
+        }
+        {
             // Cannot reduce the residual: diagnose.
             if x.a <= 3.0 * A_MIN {
                 return Err(no_eq(flat_reason()));

@@ -69,25 +69,19 @@ pub fn evaluate(
 
 /// Pressure resultant and moments only (cheap): `(load, moment_pitch, moment_roll)`.
 pub fn resultants(solver: &ReynoldsSolver) -> (f64, f64, f64) {
-    let g = solver.grid();
-    let o = solver.frame().outline;
     let p = solver.pressure();
-    let (s_span, t_span) = (o.s_span(), o.t_at(1.0) - o.t_at(0.0));
+    let area = solver.node_area();
     let basis = solver.node_basis();
     let mut w = 0.0;
     let mut mp = 0.0;
     let mut mr = 0.0;
-    for j in 1..g.ny {
-        let t = o.t_at(g.eta[j]);
-        let dt = g.eta_extent(j) * t_span * o.metric(t);
-        for i in 1..g.nx {
-            let k = g.idx(i, j);
-            let f = p[k] * dt * g.xi_extent(i) * s_span;
-            let b = basis_at(basis, k);
-            w += f;
-            mp += f * b.0;
-            mr += f * b.1;
-        }
+    // Boundary nodes hold the ambient pressure and add nothing.
+    for (k, (&pk, &a)) in p.iter().zip(area).enumerate() {
+        let f = pk * a;
+        let b = basis_at(basis, k);
+        w += f;
+        mp += f * b.0;
+        mr += f * b.1;
     }
     (w, mp, mr)
 }
@@ -104,8 +98,7 @@ pub fn integrate(solver: &ReynoldsSolver, mu: &[f64], solve: SolveReport) -> Pad
     let p = solver.pressure();
     let h = solver.film();
     let lvl = solver.level();
-    let (s_span, t0, t1) = (o.s_span(), o.t_at(0.0), o.t_at(1.0));
-    let t_span = t1 - t0;
+    let t_span = o.t_at(1.0) - o.t_at(0.0);
     let is_sector = matches!(o, crate::geometry::PadOutline::Sector { .. });
 
     let (load, moment_pitch, moment_roll) = resultants(solver);
@@ -123,16 +116,17 @@ pub fn integrate(solver: &ReynoldsSolver, mu: &[f64], solve: SolveReport) -> Pad
     let mut area = 0.0;
     let floor = solver.settings.cavitation_pressure;
     let cav_on = solver.settings.cavitation;
+    let node_area = solver.node_area();
+    let node_xy = solver.node_position();
     for j in 0..=g.ny {
         let t = o.t_at(g.eta[j]);
-        let m = o.metric(t);
         let u = frame.surface_speed(t);
         let dt = g.eta_extent(j) * t_span;
         for i in 0..=g.nx {
             let k = g.idx(i, j);
-            let da = m * g.xi_extent(i) * s_span * dt;
+            let da = node_area[k];
             area += da;
-            let xy = o.position(g.xi[i], g.eta[j]);
+            let xy = node_xy[k];
             cx += p[k] * xy[0] * da;
             cy += p[k] * xy[1] * da;
             if p[k] > peak.0 {

@@ -72,6 +72,8 @@ pub struct ReynoldsSolver {
     film: FilmModel,
     mg: Multigrid,
     node_basis: BasisArrays,
+    node_area: Vec<f64>,
+    node_xy: Vec<[f64; 2]>,
     h_node: Vec<f64>,
     /// Solve settings.
     pub settings: ReynoldsSettings,
@@ -89,6 +91,19 @@ impl ReynoldsSolver {
                 (0..=g.nx).map(move |i| (g.xi[i], g.eta[j]))
             }),
         );
+        // Control-volume areas (half and quarter cells on the edges) and positions, m² and m.
+        let o = frame.outline;
+        let (s_span, t_span) = (o.s_span(), o.t_at(1.0) - o.t_at(0.0));
+        let mut node_area = Vec::with_capacity(grid.len());
+        let mut node_xy = Vec::with_capacity(grid.len());
+        for j in 0..=grid.ny {
+            let t = o.t_at(grid.eta[j]);
+            for i in 0..=grid.nx {
+                node_area
+                    .push(o.metric(t) * grid.xi_extent(i) * s_span * grid.eta_extent(j) * t_span);
+                node_xy.push(o.position(grid.xi[i], grid.eta[j]));
+            }
+        }
         let finest = Level::new(&frame, &film, grid);
         let mut mg = Multigrid::new(finest, |g| Level::new(&frame, &film, g));
         mg.cycle = settings.cycle;
@@ -98,6 +113,8 @@ impl ReynoldsSolver {
             film,
             mg,
             node_basis,
+            node_area,
+            node_xy,
             h_node: vec![0.0; n],
             settings,
             has_solution: false,
@@ -128,6 +145,16 @@ impl ReynoldsSolver {
     /// Film basis at the finest nodes.
     pub fn node_basis(&self) -> &BasisArrays {
         &self.node_basis
+    }
+
+    /// Control-volume area of each finest node (half and quarter cells on the edges), m².
+    pub fn node_area(&self) -> &[f64] {
+        &self.node_area
+    }
+
+    /// Position of each finest node in the runner plane, m.
+    pub fn node_position(&self) -> &[[f64; 2]] {
+        &self.node_xy
     }
 
     /// Number of multigrid levels.

@@ -152,7 +152,7 @@ pub struct FieldSettings {
     pub heat: HeatPaths,
     /// Stop when the film temperature changes by less than this between iterations, K.
     pub tolerance: f64,
-    /// Largest number of Reynolds–energy iterations per film state.
+    /// Largest number of renewals of the temperature field in one equilibrium.
     pub max_iterations: usize,
 }
 
@@ -163,7 +163,7 @@ impl FieldSettings {
             supply,
             heat: HeatPaths::default(),
             tolerance: DEFAULT_TEMPERATURE_TOLERANCE,
-            max_iterations: 60,
+            max_iterations: 40,
         }
     }
 
@@ -354,9 +354,6 @@ impl FieldPad {
             supply.inlet_temperature(self.state.outlet, flows.leading_in, flows.trailing_out);
         self.energy
             .solve(g, self.rho_c, t_in, supply.temperature, &surf);
-        self.state.balance = self
-            .energy
-            .balance(g, self.rho_c, t_in, supply.temperature, &surf);
         // Fixed-point residual: the solved field against the field the viscosity came from.
         let used = &self.state.temperature;
         let solved = &self.energy.temperature;
@@ -480,6 +477,15 @@ impl FilmResponse for FieldPad {
 
     fn update_tolerance(&self) -> f64 {
         self.settings.tolerance
+    }
+
+    fn update_limit(&self) -> usize {
+        self.settings.max_iterations
+    }
+
+    fn restart_updates(&mut self) {
+        self.has_previous_residual = false;
+        self.omega = 0.5;
     }
 
     fn scales_inverse_square(&self) -> bool {
