@@ -469,3 +469,44 @@ fn point_pivot_needs_the_reachable_centre_of_pressure() {
     assert!(matches!(run(0.55), Err(SolverError::NoEquilibrium { .. })));
     assert!(run(0.58).is_ok());
 }
+
+/// Every pivot position along the arc gets an answer or a typed, explained refusal: the
+/// equilibrium either converges with the moments balanced, or reports that no equilibrium
+/// exists or that the pad is overloaded — never a stray internal failure (robustness of the
+/// equilibrium search; common practice, no source). Forward pivots have no equilibrium
+/// (classical, Raimondi & Boyd 1955); far-aft pivots run the film down until the pad is
+/// overloaded or the centre of pressure cannot follow.
+#[test]
+fn every_pivot_position_gets_an_answer_or_a_reason() {
+    let mut converged = 0;
+    for k in 0..=21 {
+        let along = 0.50 + 0.02 * k as f64;
+        let s = pads::solver(
+            sector(),
+            sector_speed(),
+            point(along, 0.5),
+            33,
+            33,
+            settings(),
+        );
+        let mut pad = IsothermalPad::new(s, MU);
+        match equilibrium::tilting_pad(&mut pad, SECTOR_LOAD, 0.0, &EquilibriumSettings::default())
+        {
+            Ok(eq) => {
+                assert!(eq.moment_error < 1e-6, "pivot {along}: {}", eq.moment_error);
+                assert!(eq.integrals.min_film > 0.0);
+                converged += 1;
+            }
+            Err(SolverError::NoEquilibrium { reason, .. }) => {
+                assert!(!reason.is_empty());
+                assert!(along < 0.58 || along > 0.86, "pivot {along}: {reason}");
+            }
+            Err(SolverError::Overload { .. }) => assert!(along > 0.8, "pivot {along}"),
+            Err(e) => panic!("pivot {along}: unexpected {e}"),
+        }
+    }
+    assert!(
+        converged >= 12,
+        "only {converged} pivot positions converged"
+    );
+}

@@ -511,6 +511,14 @@ pub fn tilting_pad<R: FilmResponse>(
         a: a0,
         g: 0.0,
     };
+    // The wide-slider start ignores the sector's corners: keep its film open everywhere.
+    for _ in 0..40 {
+        let st = frame.state(&x);
+        if c.r.min_film(&st) >= 0.3 * st.reference {
+            break;
+        }
+        x.a *= 0.8;
+    }
     // Scale the first guess to the load (exact for a rigid isoviscous pad).
     let first = c.eval(&frame.state(&x), Start::Cold)?;
     if first.load > 0.0 {
@@ -785,7 +793,19 @@ fn scan_pitch<R: FilmResponse>(
         prev = Some((x, f[1]));
     }
     if signs.iter().all(|&f| f <= 0.0) {
-        Err(no_eq(flat_reason()))
+        // The pitch moment is the centre of pressure's distance ahead of the pivot over the
+        // pad length: its largest value is how far forward the centre of pressure can come.
+        let best = signs.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+        if best.is_finite() && best < -0.005 {
+            Err(no_eq(format!(
+                "the centre of pressure cannot come as far forward as the pivot for any tilt; \
+                 at best it lies at about {:.0} % of the arc (move the pivot aft of that, or \
+                 give the pad face a crown)",
+                100.0 * (frame.pivot.0 - best)
+            )))
+        } else {
+            Err(no_eq(flat_reason()))
+        }
     } else if signs.iter().all(|&f| f > 0.0) {
         Err(no_eq(aft_reason()))
     } else {

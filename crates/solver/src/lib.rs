@@ -35,6 +35,7 @@ pub mod lubricant;
 pub mod pad;
 pub mod results;
 pub mod reynolds;
+pub mod sweep;
 pub mod thermal;
 
 /// The types most programs need.
