@@ -117,7 +117,25 @@ impl FaceFlows {
 /// volume of a boundary node passes on through its physical edge whatever its other faces
 /// do not balance. Corner quarter-volumes are assigned to the leading and trailing edges.
 pub fn edge_flows(lvl: &Level, p: &[f64]) -> Flows {
-    let mut f = FaceFlows::default();
-    f.compute(lvl, p);
-    f.edges(&lvl.grid)
+    // Only the faces next to the edges matter: O(nx + ny) work, no allocation.
+    let g = &lvl.grid;
+    let (nx, ny) = (g.nx, g.ny);
+    let w = nx + 1;
+    let east = |k: usize| lvl.ue[k] * lvl.he[k] - lvl.ce[k] * (p[k + 1] - p[k]);
+    let north = |k: usize| -lvl.cn[k] * (p[k + w] - p[k]);
+    let leading_in = (0..=ny).map(|j| east(j * w)).sum();
+    let trailing_out = (0..=ny).map(|j| east(j * w + nx - 1)).sum();
+    let inner_out = (1..nx).map(|i| east(i - 1) - east(i) - north(i)).sum();
+    let outer_out = (1..nx)
+        .map(|i| {
+            let k = ny * w + i;
+            east(k - 1) - east(k) + north(k - w)
+        })
+        .sum();
+    Flows {
+        leading_in,
+        trailing_out,
+        inner_out,
+        outer_out,
+    }
 }

@@ -400,17 +400,27 @@ impl Multigrid {
         match floor {
             None => sum.sqrt(),
             Some(fl) => {
+                // Only interior nodes can cavitate; the edges hold the ambient pressure.
+                let lay = o.lay;
                 let mut s = 0.0;
                 let mut any = false;
-                for k in 0..o.u.len() {
-                    let r = o.r[k];
-                    let at_floor = o.u[k] <= fl;
-                    let v = if at_floor { r.max(0.0) } else { r };
-                    s += v * v;
-                    // Cavitated nodes that stay cavitated take no coarse correction.
-                    let a = at_floor && r <= 0.0;
-                    o.excl.mask[k] = a;
-                    any |= a;
+                o.excl.mask.fill(false);
+                for j in 1..lay.ny {
+                    for (part_even, off) in [(true, 0), (false, lay.he)] {
+                        let (m0, m1, _, _) = half_row(&lay, part_even);
+                        let range = j * lay.w + off + m0..j * lay.w + off + m1.max(m0);
+                        let (u, r) = (&o.u[range.clone()], &o.r[range.clone()]);
+                        let mask = &mut o.excl.mask[range];
+                        for k in 0..u.len() {
+                            let at_floor = u[k] <= fl;
+                            let v = if at_floor { r[k].max(0.0) } else { r[k] };
+                            s += v * v;
+                            // Cavitated nodes that stay cavitated take no coarse correction.
+                            let a = at_floor && r[k] <= 0.0;
+                            mask[k] = a;
+                            any |= a;
+                        }
+                    }
                 }
                 o.excl.active = any;
                 s.sqrt()
