@@ -525,7 +525,7 @@ pub fn assemble_result(
         min_film_at: i.min_film_at,
         max_film: i.max_film,
         attitude,
-        crown: eq.state.crown,
+        crown: eq.state.crown + thermal.as_ref().map_or(0.0, |t| t.thermal_crown),
         peak_pressure: i.peak_pressure,
         peak_at: i.peak_at,
         mean_pressure: i.load / area,
