@@ -599,7 +599,7 @@ pub fn tilting_pad<R: FilmResponse>(
     let stiffness = if scaling {
         2.0 * integrals.load / state.reference
     } else {
-        tilting_stiffness(&mut c, &frame, &x, load, settings, &mut cache)?
+        tilting_stiffness(&mut c, &frame, &x, load)?
     };
     // Leave the solver holding the equilibrium pressure.
     let integrals = c.eval(&state, Start::Warm)?;
@@ -639,39 +639,31 @@ fn frozen_tilt<R: FilmResponse>(
     }
 }
 
-/// `dW/dh_p` with the pad free to tilt, by re-solving the equilibrium at ±1 % load.
+/// `−dW/dh_p` with the pad free to tilt (N/m), from the Jacobian of the equilibrium at the
+/// solution: a load change `d ln W` moves the solution by `J⁻¹ (d ln W, 0, 0)`, so
+/// `d ln h_p / d ln W = (J⁻¹)₀₀` and `−dW/dh_p = −W / (h_p (J⁻¹)₀₀)` (for a rigid isoviscous pad
+/// `(J⁻¹)₀₀ = −1/2`, the exact `2W/h_p`).
 fn tilting_stiffness<R: FilmResponse>(
     c: &mut Counted<R>,
     frame: &TiltFrame,
     x: &Shape,
     load: f64,
-    settings: &EquilibriumSettings,
-    cache: &mut JacobianCache,
 ) -> Result<f64, SolverError> {
-    let eps = 0.01;
-    let mut n = 0;
-    let up = newton_tilt(
-        c,
-        frame,
-        *x,
-        load * (1.0 + eps),
-        false,
-        settings,
-        &mut n,
-        cache,
-    )?;
-    let dn = newton_tilt(
-        c,
-        frame,
-        *x,
-        load * (1.0 - eps),
-        false,
-        settings,
-        &mut n,
-        cache,
-    )?;
-    let (hu, hd) = (up.ln_h.exp(), dn.ln_h.exp());
-    Ok(2.0 * eps * load / (hd - hu))
+    let vars: &[usize] = if frame.line { &[0, 1] } else { &[0, 1, 2] };
+    let i = c.eval(&frame.state(x), Start::Warm)?;
+    let f = tilt_residual(&i, frame, load).unwrap_or_default();
+    let no = || SolverError::NotConverged {
+        what: "film stiffness at the equilibrium",
+        iterations: 1,
+        residual: 0.0,
+    };
+    let jac = fd_jacobian(c, frame, vars, x, &f, load)?.ok_or_else(no)?;
+    let mut e0 = vec![0.0; vars.len()];
+    e0[0] = 1.0;
+    let y = solve_small(&jac, &e0, vars.len()).ok_or_else(no)?;
+    let h = x.ln_h.exp();
+    let k = -i.load / (h * y[0]);
+    if k.is_finite() { Ok(k) } else { Err(no()) }
 }
 
 /// Residual vector of the tilting equilibrium: `[ln(W/W_t), M_pitch/(W L), M_roll/(W B)]`.
@@ -691,6 +683,58 @@ fn tilt_residual(i: &PadIntegrals, frame: &TiltFrame, load: f64) -> Option<[f64;
 }
 
 const A_MIN: f64 = 2e-3;
+
+/// Component `v` of a shape: 0 the log pivot film, 1 the pitch shape, 2 the roll shape.
+fn shape_get(s: &Shape, v: usize) -> f64 {
+    match v {
+        0 => s.ln_h,
+        1 => s.a,
+        _ => s.g,
+    }
+}
+
+fn shape_set(s: &mut Shape, v: usize, val: f64) {
+    match v {
+        0 => s.ln_h = val,
+        1 => s.a = val,
+        _ => s.g = val,
+    }
+}
+
+/// Finite-difference Jacobian of the tilting residual on the active variables `vars`, from
+/// the residual `f` at `x` (forward differences, relative steps of 1e-5). `None` if a step
+/// closes the film.
+fn fd_jacobian<R: FilmResponse>(
+    c: &mut Counted<R>,
+    frame: &TiltFrame,
+    vars: &[usize],
+    x: &Shape,
+    f: &[f64; 3],
+    load: f64,
+) -> Result<Option<[[f64; 3]; 3]>, SolverError> {
+    let mut jac = [[0.0; 3]; 3];
+    for (col, &v) in vars.iter().enumerate() {
+        let x0 = shape_get(x, v);
+        let step = match v {
+            0 => 1e-5,
+            _ => 1e-5 * x0.abs().max(0.05),
+        };
+        let mut xp = *x;
+        shape_set(&mut xp, v, x0 + step);
+        let fp = match c.eval(&frame.state(&xp), Start::Warm) {
+            Ok(i) => tilt_residual(&i, frame, load),
+            Err(SolverError::FilmClosed { .. }) => None,
+            Err(e) => return Err(e),
+        };
+        let Some(fp) = fp else {
+            return Ok(None);
+        };
+        for (row, &w) in vars.iter().enumerate() {
+            jac[row][col] = (fp[w] - f[w]) / step;
+        }
+    }
+    Ok(Some(jac))
+}
 
 /// Sets the roll shape `g` so that the roll moment vanishes at the current pitch (secant, to
 /// the accuracy a scan needs). Returns the residual vector there.
@@ -853,16 +897,8 @@ fn newton_tilt<R: FilmResponse>(
     };
     let norm = |f: &[f64; 3]| vars.iter().map(|&v| f[v] * f[v]).sum::<f64>().sqrt();
     let converged = |f: &[f64; 3]| vars.iter().all(|&v| f[v].abs() <= settings.tolerance);
-    let get = |s: &Shape, v: usize| match v {
-        0 => s.ln_h,
-        1 => s.a,
-        _ => s.g,
-    };
-    let set = |s: &mut Shape, v: usize, val: f64| match v {
-        0 => s.ln_h = val,
-        1 => s.a = val,
-        _ => s.g = val,
-    };
+    let get = shape_get;
+    let set = shape_set;
     let eval = |c: &mut Counted<R>, s: &Shape| -> Result<Option<[f64; 3]>, SolverError> {
         match c.eval(&frame.state(s), Start::Warm) {
             Ok(i) => Ok(tilt_residual(&i, frame, load)),
@@ -889,22 +925,8 @@ fn newton_tilt<R: FilmResponse>(
         }
         let fresh = want_fresh;
         let jac = if fresh {
-            // Finite-difference Jacobian on the active variables.
-            let mut jac = [[0.0; 3]; 3];
-            for (col, &v) in vars.iter().enumerate() {
-                let x0 = get(&x, v);
-                let step = match v {
-                    0 => 1e-5,
-                    _ => 1e-5 * x0.abs().max(0.05),
-                };
-                let mut xp = x;
-                set(&mut xp, v, x0 + step);
-                let fp =
-                    eval(c, &xp)?.ok_or_else(|| no_eq("the film closes while tilting".into()))?;
-                for (row, &w) in vars.iter().enumerate() {
-                    jac[row][col] = (fp[w] - f[w]) / step;
-                }
-            }
+            let jac = fd_jacobian(c, frame, &vars, &x, &f, load)?
+                .ok_or_else(|| no_eq("the film closes while tilting".into()))?;
             cache.jac = Some((jac, n));
             jac
         } else {
