@@ -256,7 +256,7 @@ pub fn render(r: &Report) -> String {
         t.pad("Roll (+ opens the outer edge)", roll * 1e3, "mrad");
     }
     if p.crown_m > 0.0 {
-        t.pad("Crown of the pad face", m_to_um(p.crown_m), "µm");
+        t.pad("Crown of the pad face, in all", m_to_um(p.crown_m), "µm");
     }
     t.pad(
         "Cavitated area",
