@@ -444,8 +444,8 @@ impl Multigrid {
         for l in (0..last).rev() {
             {
                 let (fo, co) = self.ops.split_at_mut(l + 1);
-                fo[l].u.fill(0.0);
-                prolong_add(&mut fo[l], &co[0].u, false, &mut self.row);
+                let (xi, eta) = (&self.levels[l].grid.xi, &self.levels[l].grid.eta);
+                interpolate_cubic(&mut fo[l], xi, eta, &co[0].u, &mut self.row);
                 fo[l].black_clean = false;
             }
             if let Some(fl) = floor {
@@ -1005,6 +1005,76 @@ fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) 
                     }
                 }
             }
+        }
+    }
+}
+
+/// Lagrange weights of the nodes `x[i0..i0 + 4]` for interpolation at `t`.
+fn lagrange4(x: &[f64], i0: usize, t: f64) -> [f64; 4] {
+    let mut w = [1.0; 4];
+    for (a, wa) in w.iter_mut().enumerate() {
+        for b in 0..4 {
+            if a != b {
+                *wa *= (t - x[i0 + b]) / (x[i0 + a] - x[i0 + b]);
+            }
+        }
+    }
+    w
+}
+
+/// First of the four coarse nodes used for the fine node between coarse `m` and `m + 1`
+/// (centred where possible, one-sided at the edges).
+fn stencil_start(m: usize, n_coarse: usize) -> usize {
+    m.saturating_sub(1).min(n_coarse - 4)
+}
+
+/// Full-multigrid interpolation of a coarse *solution* `uc` (split layout of the coarse level)
+/// onto the fine level's `u`, cubic (four-point Lagrange on the node positions) in each
+/// direction; linear where the coarse level has fewer than four nodes across. Cubic
+/// interpolation of the solution keeps the fine residual of a full-multigrid start small, as
+/// the solution is smooth (linear interpolation is enough for corrections).
+fn interpolate_cubic(fine: &mut Ops, xi: &[f64], eta: &[f64], uc: &[f64], buf: &mut [f64]) {
+    let fl = fine.lay;
+    let (cnx, cny) = (fl.nx / 2, fl.ny / 2);
+    if cnx < 3 || cny < 3 {
+        fine.u.fill(0.0);
+        prolong_add(fine, uc, false, buf);
+        return;
+    }
+    let cl = Layout::new(cnx, cny);
+    let xc: Vec<f64> = (0..=cnx).map(|i| xi[2 * i]).collect();
+    let yc: Vec<f64> = (0..=cny).map(|j| eta[2 * j]).collect();
+    // Coarse rows interpolated to every fine column: buf(J, i), width nx + 1.
+    let w = fl.w;
+    let wx: Vec<(usize, [f64; 4])> = (0..cnx)
+        .map(|m| {
+            let s0 = stencil_start(m, cnx + 1);
+            (s0, lagrange4(&xc, s0, xi[2 * m + 1]))
+        })
+        .collect();
+    for jc in 0..=cny {
+        let row = &mut buf[jc * w..(jc + 1) * w];
+        for ic in 0..=cnx {
+            row[2 * ic] = uc[cl.pos(ic, jc)];
+        }
+        for (m, &(s0, wt)) in wx.iter().enumerate() {
+            row[2 * m + 1] = (0..4).map(|q| wt[q] * uc[cl.pos(s0 + q, jc)]).sum();
+        }
+    }
+    fine.u.fill(0.0);
+    for j in 1..fl.ny {
+        let (s0, wt) = if j % 2 == 0 {
+            (j / 2, [1.0, 0.0, 0.0, 0.0])
+        } else {
+            let s0 = stencil_start((j - 1) / 2, cny + 1);
+            (s0, lagrange4(&yc, s0, eta[j]))
+        };
+        let rows: [&[f64]; 4] =
+            std::array::from_fn(|q| &buf[(s0 + q).min(cny) * w..((s0 + q).min(cny) + 1) * w]);
+        for i in 1..fl.nx {
+            let v =
+                wt[0] * rows[0][i] + wt[1] * rows[1][i] + wt[2] * rows[2][i] + wt[3] * rows[3][i];
+            fine.u[fl.pos(i, j)] = v;
         }
     }
 }
