@@ -128,7 +128,7 @@ impl Grid {
     /// The next coarser grid (every other node), if both directions have an even number of
     /// intervals and at least four of them.
     pub fn coarsen(&self) -> Option<Grid> {
-        if self.nx % 2 != 0 || self.ny % 2 != 0 || self.nx < 4 || self.ny < 4 {
+        if !self.nx.is_multiple_of(2) || !self.ny.is_multiple_of(2) || self.nx < 4 || self.ny < 4 {
             return None;
         }
         Some(Grid {

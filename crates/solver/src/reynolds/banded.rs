@@ -50,7 +50,7 @@ impl BandedCholesky {
             }
             if d == 0 {
                 1.0 / inv_diag[k]
-            } else if d == 1 && i % bw != 0 {
+            } else if d == 1 && !i.is_multiple_of(bw) {
                 -level.ce[k - 1]
             } else if d == bw {
                 -level.cn[k - w]

@@ -54,7 +54,12 @@ impl Layout {
     /// Position of node `(i, j)`.
     #[inline(always)]
     fn pos(&self, i: usize, j: usize) -> usize {
-        j * self.w + if i % 2 == 0 { i / 2 } else { self.he + i / 2 }
+        j * self.w
+            + if i.is_multiple_of(2) {
+                i / 2
+            } else {
+                self.he + i / 2
+            }
     }
 
     fn len(&self) -> usize {
@@ -766,7 +771,7 @@ impl Kernel<'_> {
         let lay = self.lay;
         let (w, he) = (lay.w, lay.he);
         for j in 1..lay.ny {
-            let part_even = (j + colour) % 2 == 0;
+            let part_even = (j + colour).is_multiple_of(2);
             let (m0, m1, ws, es) = half_row(&lay, part_even);
             if m1 <= m0 {
                 continue;
@@ -1033,6 +1038,7 @@ fn stencil_start(m: usize, n_coarse: usize) -> usize {
 /// direction; linear where the coarse level has fewer than four nodes across. Cubic
 /// interpolation of the solution keeps the fine residual of a full-multigrid start small, as
 /// the solution is smooth (linear interpolation is enough for corrections).
+#[allow(clippy::needless_range_loop)]
 fn interpolate_cubic(fine: &mut Ops, xi: &[f64], eta: &[f64], uc: &[f64], buf: &mut [f64]) {
     let fl = fine.lay;
     let (cnx, cny) = (fl.nx / 2, fl.ny / 2);
@@ -1062,18 +1068,17 @@ fn interpolate_cubic(fine: &mut Ops, xi: &[f64], eta: &[f64], uc: &[f64], buf: &
         }
     }
     fine.u.fill(0.0);
-    for j in 1..fl.ny {
+    for (j, &eta_j) in eta.iter().enumerate().take(fl.ny).skip(1) {
         let (s0, wt) = if j % 2 == 0 {
             (j / 2, [1.0, 0.0, 0.0, 0.0])
         } else {
             let s0 = stencil_start((j - 1) / 2, cny + 1);
-            (s0, lagrange4(&yc, s0, eta[j]))
+            (s0, lagrange4(&yc, s0, eta_j))
         };
         let rows: [&[f64]; 4] =
             std::array::from_fn(|q| &buf[(s0 + q).min(cny) * w..((s0 + q).min(cny) + 1) * w]);
         for i in 1..fl.nx {
-            let v =
-                wt[0] * rows[0][i] + wt[1] * rows[1][i] + wt[2] * rows[2][i] + wt[3] * rows[3][i];
+            let v = (0..4).map(|q| wt[q] * rows[q][i]).sum();
             fine.u[fl.pos(i, j)] = v;
         }
     }
