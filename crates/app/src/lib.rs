@@ -12,6 +12,18 @@
 //! * [`templates`] — the commented example designs behind `padwright example`;
 //! * [`cli`] — the command line, callable in-process through [`cli::run`];
 //! * [`error`] — the typed errors shown to the user.
+//!
+//! ```
+//! // Write the tilting-pad example design, then analyse it, all in-process.
+//! let (mut out, mut err) = (Vec::new(), Vec::new());
+//! assert_eq!(padwright::cli::run(["padwright", "example", "tilting"], &mut out, &mut err), 0);
+//! let path = std::env::temp_dir().join("padwright-doc-example.ron");
+//! std::fs::write(&path, &out).unwrap();
+//! let mut json = Vec::new();
+//! let code = padwright::cli::run(["padwright", "solve", path.to_str().unwrap(), "--json"], &mut json, &mut err);
+//! assert_eq!(code, 0);
+//! assert!(String::from_utf8(json).unwrap().contains("min_film_thickness_m"));
+//! ```
 #![forbid(unsafe_code)]
 
 pub mod cli;

@@ -224,7 +224,7 @@ pub fn fixed_pad_at_load<R: FilmResponse>(
     }
     Err(SolverError::NotConverged {
         what: "coupling of film temperature and load",
-        iterations: MAX_COUPLING_ROUNDS,
+        iterations: r.update_limit(),
         residual: 0.0,
     })
 }

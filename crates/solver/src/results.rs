@@ -174,7 +174,7 @@ pub struct ThermalResult {
     pub through_thickness_difference: f64,
     /// Energy totals of one pad, W.
     pub energy: crate::thermal::energy::EnergyBalance,
-    /// Reynolds–energy iterations at the final film state.
+    /// Renewals of the temperature field during the analysis (zero for the bulk model).
     pub iterations: usize,
     /// Fresh oil the whole bearing draws from the supply, m³/s.
     pub fresh_oil_flow: f64,
