@@ -150,7 +150,6 @@ fn sparse_matrix(l: &Level) -> (SparseColMat<usize, f64>, Vec<usize>) {
     )
 }
 
-
 /// Best (shortest) wall time of `f` over repetitions filling about `budget`: on a shared
 /// machine the minimum is the estimate least disturbed by other load.
 fn time<F: FnMut()>(mut f: F, budget: Duration) -> Duration {

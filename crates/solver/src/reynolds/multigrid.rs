@@ -30,6 +30,9 @@
 use super::banded::BandedCholesky;
 use super::stencil::Level;
 
+/// Smallest number of intervals per direction of a coarse level.
+const MIN_COARSE_INTERVALS: usize = 8;
+
 /// Even/odd-column split layout of the nodes of one level.
 #[derive(Clone, Copy, Debug)]
 struct Layout {
@@ -238,7 +241,15 @@ impl Multigrid {
     /// `make_level` for each coarsened grid.
     pub fn new(finest: Level, make_level: impl Fn(crate::grid::Grid) -> Level) -> Self {
         let mut levels = vec![finest];
-        while let Some(g) = levels.last().unwrap().grid.coarsen() {
+        // Stop at a coarsest level of at least MIN_COARSE_INTERVALS per direction: tinier
+        // levels cost more in loop overhead than a direct solve of this size.
+        while let Some(g) = levels
+            .last()
+            .unwrap()
+            .grid
+            .coarsen()
+            .filter(|g| g.nx.min(g.ny) >= MIN_COARSE_INTERVALS)
+        {
             levels.push(make_level(g));
         }
         let ops: Vec<Ops> = levels.iter().map(Ops::new).collect();
