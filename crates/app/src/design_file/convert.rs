@@ -113,36 +113,20 @@ impl DesignFile {
             }
         };
         let pct = "a percentage (60 means 60 %, not 0.6)";
+        // Pivot offsets: 5–95 % of the arc or width.
+        let pivot = |field: &str, v: f64| in_range(field, v, 5.0, 95.0, pct).map(pct_to_fraction);
         let support = match self.support {
             SupportSpec::TiltingPoint {
                 pivot_offset_along_pct,
                 pivot_offset_across_pct,
             } => Support::TiltingPoint {
-                offset_along: pct_to_fraction(in_range(
-                    "support.pivot_offset_along_pct",
-                    pivot_offset_along_pct,
-                    5.0,
-                    95.0,
-                    pct,
-                )?),
-                offset_across: pct_to_fraction(in_range(
-                    "support.pivot_offset_across_pct",
-                    pivot_offset_across_pct,
-                    5.0,
-                    95.0,
-                    pct,
-                )?),
+                offset_along: pivot("support.pivot_offset_along_pct", pivot_offset_along_pct)?,
+                offset_across: pivot("support.pivot_offset_across_pct", pivot_offset_across_pct)?,
             },
             SupportSpec::TiltingLine {
                 pivot_offset_along_pct,
             } => Support::TiltingLine {
-                offset_along: pct_to_fraction(in_range(
-                    "support.pivot_offset_along_pct",
-                    pivot_offset_along_pct,
-                    5.0,
-                    95.0,
-                    pct,
-                )?),
+                offset_along: pivot("support.pivot_offset_along_pct", pivot_offset_along_pct)?,
             },
             SupportSpec::TaperedLand {
                 taper_extent_pct,

@@ -304,22 +304,9 @@ impl FieldPad {
     /// the report belongs to the final equilibrium. The film temperature then differs from the
     /// one the viscosity came from by less than the coupling tolerance.
     pub fn refresh_report(&mut self) {
-        let surf = self.settings.exchange();
-        let supply = self.settings.supply;
+        let t_in = self.solve_energy();
+        let (supply, surf) = (self.settings.supply, self.settings.exchange());
         let g = self.solver.grid();
-        let frame = *self.solver.frame();
-        self.energy.prepare(
-            &frame,
-            self.solver.level(),
-            self.solver.pressure(),
-            &self.mu,
-            self.solver.film(),
-        );
-        let flows = self.energy.faces.edges(g);
-        let t_in =
-            supply.inlet_temperature(self.state.outlet, flows.leading_in, flows.trailing_out);
-        self.energy
-            .solve(g, self.rho_c, t_in, supply.temperature, &surf);
         self.state.balance = self
             .energy
             .balance(g, self.rho_c, t_in, supply.temperature, &surf);
@@ -331,15 +318,15 @@ impl FieldPad {
         self.state.temperature.clone_from(t);
     }
 
-    /// Renews the temperature field from the last pressure solution: energy equation with
-    /// the mixed inlet, then viscosity and thermal crown. Returns the largest change of the
-    /// film temperature, K.
-    fn renew(&mut self) -> Result<f64, SolverError> {
+    /// Solves the energy equation for the current pressure solution and viscosity field, with
+    /// the inlet mixed from the supply and the outlet of the previous iterate (hot-oil
+    /// carry-over; the fixed point converges together with the temperature field). Leaves the
+    /// solved field in the energy workspace and returns the inlet temperature, K.
+    fn solve_energy(&mut self) -> f64 {
         let surf = self.settings.exchange();
         let supply = self.settings.supply;
         let g = self.solver.grid();
         let frame = *self.solver.frame();
-        let r2 = self.solver.film_model().crown_reference_radius2();
         self.energy.prepare(
             &frame,
             self.solver.level(),
@@ -348,12 +335,20 @@ impl FieldPad {
             self.solver.film(),
         );
         let flows = self.energy.faces.edges(g);
-        // Carry-over: the inlet mixes the supply with the outlet of the previous iterate (the
-        // fixed point converges together with the temperature field).
         let t_in =
             supply.inlet_temperature(self.state.outlet, flows.leading_in, flows.trailing_out);
         self.energy
             .solve(g, self.rho_c, t_in, supply.temperature, &surf);
+        t_in
+    }
+
+    /// Renews the temperature field from the last pressure solution: energy equation with
+    /// the mixed inlet, then viscosity and thermal crown. Returns the largest change of the
+    /// film temperature, K.
+    fn renew(&mut self) -> Result<f64, SolverError> {
+        let t_in = self.solve_energy();
+        let g = self.solver.grid();
+        let r2 = self.solver.film_model().crown_reference_radius2();
         // Fixed-point residual: the solved field against the field the viscosity came from.
         let used = &self.state.temperature;
         let solved = &self.energy.temperature;
