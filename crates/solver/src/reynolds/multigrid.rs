@@ -5,13 +5,13 @@
 //! * Transfers: bilinear prolongation `P` (on the possibly non-uniform node positions) and
 //!   restriction `R = Pᵀ`, which for the integrated finite-volume equations is the right
 //!   scaling (a coarse control volume sums the fine ones).
-//! * Smoother: red–black Gauss–Seidel, projected onto `p ≥ p_cav` on the level that carries the
-//!   full solution.
-//! * Cycle: a V-cycle without pre-smoothing ("sawtooth", V(0, ν)). After a red–black sweep the
-//!   residual of the black nodes is exactly zero, so each cycle starts by computing the residual
-//!   of the red nodes only; that residual is both the convergence check and what is restricted.
-//!   On the coarse levels the correction starts from zero, so their residual is their
-//!   right-hand side and costs nothing.
+//! * Smoother: red–black Gauss–Seidel with over-relaxation (ω = 1.15 by default), projected onto
+//!   `p ≥ p_cav` on the level that carries the full solution.
+//! * Cycle: V(1,1) by default. The residual computed after the pre-smoothing is that of a valid
+//!   iterate, so it serves as the convergence check at no extra cost. With ω = 1 the residual of
+//!   the black nodes after a red–black sweep is exactly zero and only the red residual is
+//!   computed. On the coarse levels the correction starts from zero, so their first residual is
+//!   their right-hand side.
 //! * Memory: every level stores its node arrays in an even/odd-column split layout (each row
 //!   holds its even columns, then its odd columns). A colour of a red–black sweep is then a
 //!   unit-stride loop over one half-row, which the compiler vectorises.
@@ -24,8 +24,10 @@
 //!   next to an excluded node therefore carries the distance to the fine boundary as a fraction
 //!   `θ` of its spacing, and its link to the boundary is given the conductance `G/θ` (the
 //!   Shortley–Weller treatment of a Dirichlet boundary between nodes).
-//! * Coarsest level: banded Cholesky (exact).
-//! * Cold starts use full multigrid (nested iteration from the coarsest level).
+//! * Coarsest level: coarsening stops at eight intervals per direction (or where the node count
+//!   is odd); that level is solved exactly by banded Cholesky.
+//! * Cold starts use full multigrid: nested iteration from the coarsest level with cubic
+//!   interpolation of each coarse solution.
 
 use super::banded::BandedCholesky;
 use super::stencil::Level;
