@@ -100,15 +100,40 @@ pub struct Equilibrium {
     pub moment_error: f64,
 }
 
+/// A response with a count of its pressure solves and a memory of the last one: asking again
+/// for the state just solved (with the internal state unchanged) costs nothing.
 struct Counted<'a, R: FilmResponse> {
     r: &'a mut R,
     solves: usize,
+    last: Option<(FilmState, PadIntegrals)>,
 }
 
-impl<R: FilmResponse> Counted<'_, R> {
+impl<'a, R: FilmResponse> Counted<'a, R> {
+    fn new(r: &'a mut R) -> Self {
+        Counted {
+            r,
+            solves: 0,
+            last: None,
+        }
+    }
+
     fn eval(&mut self, s: &FilmState, start: Start) -> Result<PadIntegrals, SolverError> {
+        if let Some((ls, li)) = self.last
+            && ls == *s
+        {
+            return Ok(li);
+        }
         self.solves += 1;
-        self.r.respond(s, start)
+        self.last = None;
+        let i = self.r.respond(s, start)?;
+        self.last = Some((*s, i));
+        Ok(i)
+    }
+
+    /// Renews the response's internal state (which changes every answer).
+    fn update(&mut self) -> Result<f64, SolverError> {
+        self.last = None;
+        self.r.update()
     }
 }
 
@@ -135,14 +160,14 @@ pub fn fixed_pad_at_film<R: FilmResponse>(
         ..Default::default()
     };
     let coupled = r.update_tolerance().is_finite();
-    let mut c = Counted { r, solves: 0 };
+    let mut c = Counted::new(r);
     let mut state = at(c.r);
     let mut integrals = c.eval(&state, Start::Cold)?;
     let mut rounds = 0;
     // Coupled model: renew the internal state until it settles (the thermal crown moves the
     // minimum film, so the reference film follows it).
     while coupled && rounds < MAX_COUPLING_ROUNDS + 1 {
-        let change = c.r.update()?;
+        let change = c.update()?;
         state = at(c.r);
         integrals = c.eval(&state, Start::Warm)?;
         rounds += 1;
@@ -247,7 +272,7 @@ fn fixed_frozen<R: FilmResponse>(
         crown,
         ..Default::default()
     };
-    let mut c = Counted { r, solves: 0 };
+    let mut c = Counted::new(r);
     let h_lo = settings.min_film;
     // With a nearby answer (a later coupling round), bracket around it first.
     let mut bracket = None;
@@ -501,7 +526,7 @@ pub fn tilting_pad<R: FilmResponse>(
         pivot,
     };
     let scaling = r.scales_inverse_square() && crown == 0.0;
-    let mut c = Counted { r, solves: 0 };
+    let mut c = Counted::new(r);
 
     // Reference pivot film for the shape iteration: a film of the order of the answer keeps
     // the pressures well scaled. Estimate from the wide slider load at the start shape.
@@ -535,7 +560,7 @@ pub fn tilting_pad<R: FilmResponse>(
             if i.load > 0.0 {
                 x.ln_h += 0.5 * (i.load / load).ln();
             }
-            let change = c.r.update()?;
+            let change = c.update()?;
             if change < 20.0 * c.r.update_tolerance() {
                 break;
             }
@@ -552,7 +577,7 @@ pub fn tilting_pad<R: FilmResponse>(
         for _ in 0..c.r.update_limit() {
             // The frozen Newton ends on an evaluation at its solution, so the solver holds
             // the pressure the renewal needs.
-            let change = c.r.update()?;
+            let change = c.update()?;
             x = frozen_tilt(
                 &mut c, &frame, x, load, scaling, settings, &mut n_it, &mut cache,
             )?;

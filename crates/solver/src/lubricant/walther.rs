@@ -187,8 +187,10 @@ impl WaltherLine {
     /// viscosity cannot be represented.
     pub fn nu_mm2_s(&self, t_k: f64) -> Result<f64, LubricantError> {
         let t_k = temperature_k(t_k)?;
-        let log_nu_plus = 10f64.powf(self.a - self.b * t_k.log10());
-        let nu_plus = 10f64.powf(log_nu_plus);
+        // 10^x as exp(x ln 10): the same value, cheaper than a general power.
+        let ln10 = std::f64::consts::LN_10;
+        let log_nu_plus = ((self.a - self.b * t_k.log10()) * ln10).exp();
+        let nu_plus = (log_nu_plus * ln10).exp();
         if !nu_plus.is_finite() {
             return Err(LubricantError::ViscosityOverflow { t_k });
         }

@@ -28,8 +28,9 @@
 //! `ρc Σ_f Q_f T_upwind` because the face flows balance. One volumetric heat capacity `ρc` at
 //! the supply temperature is used throughout, as an incompressible film requires.
 //!
-//! The upwind system is solved by Gauss–Seidel sweeps in the direction of the motion, which
-//! follow the flow and converge in a few sweeps.
+//! The upwind system is solved column by column in the direction of the motion, each column
+//! exactly as a tridiagonal system (side flows couple its nodes both ways); one pass is exact
+//! where no oil flows backwards along the motion.
 
 use crate::flow::FaceFlows;
 use crate::geometry::PadFrame;
@@ -60,6 +61,8 @@ pub struct EnergySolver {
     pub area: Vec<f64>,
     /// Film temperature at each node, K.
     pub temperature: Vec<f64>,
+    /// Column system of the tridiagonal solve: diagonal, lower, upper, right-hand side.
+    col: Vec<f64>,
 }
 
 /// Energy totals of one solution, W.
@@ -88,6 +91,14 @@ impl EnergyBalance {
 }
 
 impl EnergySolver {
+    /// A workspace whose first temperature field is `temperature` (K at the nodes).
+    pub fn starting_at(temperature: Vec<f64>) -> Self {
+        EnergySolver {
+            temperature,
+            ..Default::default()
+        }
+    }
+
     /// Prepares the face flows, dissipation and areas for a solved pressure `p` (Pa) on `lvl`
     /// with nodal viscosity `mu` (Pa·s) and film `h` (m).
     pub fn prepare(&mut self, frame: &PadFrame, lvl: &Level, p: &[f64], mu: &[f64], h: &[f64]) {
@@ -101,6 +112,7 @@ impl EnergySolver {
         if self.temperature.len() != n {
             self.temperature = vec![0.0; n];
         }
+        self.col.resize(4 * (lvl.grid.ny + 1), 0.0);
         let w = g.nx + 1;
         for j in 0..=g.ny {
             let t = o.t_at(g.eta[j]);
@@ -152,14 +164,16 @@ impl EnergySolver {
         let h_ref = surf.runner_coefficient * surf.runner_temperature
             + surf.pad_coefficient * surf.bath_temperature;
         let t = &mut self.temperature;
+        // Column by column along the motion: the coupling across the motion (side flows run
+        // both ways) is solved exactly in each column as a tridiagonal system, with the
+        // neighbouring columns' current temperatures; one pass is exact unless oil flows
+        // backwards along the motion somewhere, which further passes take care of.
         let mut sweeps = 0;
-        for sweep in 0..200 {
+        for sweep in 0..50 {
             sweeps = sweep + 1;
             let mut change: f64 = 0.0;
             for i in 0..=nx {
-                for jj in 0..=ny {
-                    // Alternate the direction across the motion: side flows run both ways.
-                    let j = if sweep % 2 == 0 { jj } else { ny - jj };
+                for j in 0..=ny {
                     let k = j * w + i;
                     let mut inflow = 0.0;
                     let mut carried = 0.0;
@@ -169,40 +183,55 @@ impl EnergySolver {
                             carried += q * tu;
                         }
                     };
-                    // West face (or the leading edge), east face, south face, north face.
+                    // West face (or the leading edge) and east face: known temperatures.
                     if i > 0 {
                         enter(e[k - 1], t[k - 1]);
                     }
                     if i < nx {
                         enter(-e[k], t[k + 1]);
                     }
-                    if j > 0 {
-                        enter(nth[k - w], t[k - w]);
-                    }
-                    if j < ny {
-                        enter(-nth[k], t[k + w]);
-                    }
-                    let on_edge = i == 0 || i == nx || j == 0 || j == ny;
-                    if on_edge {
+                    if i == 0 || i == nx || j == 0 || j == ny {
                         let out = self.faces.edge_outflow(g, i, j);
                         let t_edge = if i == 0 { t_inlet } else { t_side };
                         enter(-out, t_edge);
                     }
+                    // South and north faces: unknowns of this column.
+                    let from_south = if j > 0 { nth[k - w].max(0.0) } else { 0.0 };
+                    let from_north = if j < ny { (-nth[k]).max(0.0) } else { 0.0 };
                     let a = self.area[k];
-                    let num = self.dissipation[k] + rho_c * carried + a * h_ref;
-                    let den = rho_c * inflow + a * h_tot;
-                    let tn = if den > 0.0 {
-                        num / den
+                    let den = rho_c * (inflow + from_south + from_north) + a * h_tot;
+                    let (dj, lo, up, rj) = if den > 0.0 {
+                        (
+                            den,
+                            rho_c * from_south,
+                            rho_c * from_north,
+                            self.dissipation[k] + rho_c * carried + a * h_ref,
+                        )
                     } else {
                         // No oil enters and no heat leaves: take the upstream value.
-                        if i > 0 { t[k - 1] } else { t_inlet }
+                        (1.0, 0.0, 0.0, if i > 0 { t[k - 1] } else { t_inlet })
                     };
+                    self.col[4 * j] = dj;
+                    self.col[4 * j + 1] = lo;
+                    self.col[4 * j + 2] = up;
+                    self.col[4 * j + 3] = rj;
+                }
+                // Thomas algorithm on  d_j T_j − lo_j T_{j−1} − up_j T_{j+1} = r_j.
+                for j in 1..=ny {
+                    let m = self.col[4 * j + 1] / self.col[4 * (j - 1)];
+                    self.col[4 * j] -= m * self.col[4 * (j - 1) + 2];
+                    self.col[4 * j + 3] += m * self.col[4 * (j - 1) + 3];
+                }
+                let mut next = 0.0;
+                for j in (0..=ny).rev() {
+                    let tn = (self.col[4 * j + 3] + self.col[4 * j + 2] * next) / self.col[4 * j];
+                    let k = j * w + i;
                     change = change.max((tn - t[k]).abs());
                     t[k] = tn;
+                    next = tn;
                 }
             }
-            // Sweeps follow the flow, so a few suffice; 1e-6 K is far below any use.
-            if change < 1e-6 {
+            if change < 1e-9 {
                 break;
             }
         }

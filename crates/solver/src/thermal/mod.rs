@@ -253,10 +253,7 @@ impl FieldPad {
         let rho_c = rho * lubricant.specific_heat_j_per_kg_k();
         let n = solver.grid().len();
         let mu0 = lubricant.dynamic_viscosity_pa_s(t0).map_err(lub)?;
-        let energy = EnergySolver {
-            temperature: vec![t0; n],
-            ..Default::default()
-        };
+        let energy = EnergySolver::starting_at(vec![t0; n]);
         Ok(FieldPad {
             solver,
             energy,
