@@ -826,7 +826,7 @@ impl Kernel<'_> {
                 let gs = sum * idr[k];
                 let mut v = me[k] + omega * (gs - me[k]);
                 if FLOOR {
-                    v = v.max(floor);
+                    v = if v < floor { floor } else { v };
                 }
                 if MASK && mk[k] {
                     v = me[k];
