@@ -390,7 +390,7 @@ impl NumericsSpec {
         r.tolerance = positive(
             "numerics.pressure_tolerance",
             self.pressure_tolerance,
-            "a relative residual such as 1e-10",
+            "a relative residual such as 1e-9",
         )?;
         r.max_cycles = self.max_pressure_cycles;
         r.cavitation = self.cavitation;

@@ -34,7 +34,7 @@ pub struct ReynoldsSettings {
 impl Default for ReynoldsSettings {
     fn default() -> Self {
         ReynoldsSettings {
-            tolerance: 1e-10,
+            tolerance: 1e-9,
             max_cycles: 100,
             cavitation: true,
             cavitation_pressure: 0.0,
