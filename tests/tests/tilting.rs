@@ -454,18 +454,7 @@ fn point_pivot_needs_the_reachable_centre_of_pressure() {
     }
     eprintln!("smallest reachable centre of pressure along the arc: {lowest:.4}");
     assert!(lowest > 0.55 + 0.01 && lowest < 0.58 - 0.01);
-    let run = |along: f64| {
-        let s = pads::solver(
-            sector(),
-            sector_speed(),
-            point(along, 0.5),
-            33,
-            33,
-            settings(),
-        );
-        let mut pad = IsothermalPad::new(s, MU);
-        equilibrium::tilting_pad(&mut pad, SECTOR_LOAD, 0.0, &EquilibriumSettings::default())
-    };
+    let run = |along: f64| coarse_sector_equilibrium(along, SECTOR_LOAD, 0.0);
     assert!(matches!(run(0.55), Err(SolverError::NoEquilibrium { .. })));
     assert!(run(0.58).is_ok());
 }
@@ -481,17 +470,7 @@ fn every_pivot_position_gets_an_answer_or_a_reason() {
     let mut converged = 0;
     for k in 0..=21 {
         let along = 0.50 + 0.02 * k as f64;
-        let s = pads::solver(
-            sector(),
-            sector_speed(),
-            point(along, 0.5),
-            33,
-            33,
-            settings(),
-        );
-        let mut pad = IsothermalPad::new(s, MU);
-        match equilibrium::tilting_pad(&mut pad, SECTOR_LOAD, 0.0, &EquilibriumSettings::default())
-        {
+        match coarse_sector_equilibrium(along, SECTOR_LOAD, 0.0) {
             Ok(eq) => {
                 assert!(eq.moment_error < 1e-6, "pivot {along}: {}", eq.moment_error);
                 assert!(eq.integrals.min_film > 0.0);
@@ -518,22 +497,30 @@ fn every_pivot_position_gets_an_answer_or_a_reason() {
 #[test]
 fn stiffness_is_the_slope_of_load_against_pivot_film() {
     let crown = 8e-6;
-    let solve = |load: f64| {
-        let s = pads::solver(
-            sector(),
-            sector_speed(),
-            point(0.6, 0.5),
-            33,
-            33,
-            settings(),
-        );
-        let mut pad = IsothermalPad::new(s, MU);
-        equilibrium::tilting_pad(&mut pad, load, crown, &EquilibriumSettings::default()).unwrap()
-    };
+    let solve = |load: f64| coarse_sector_equilibrium(0.6, load, crown).unwrap();
     let mid = solve(SECTOR_LOAD);
     let (up, dn) = (solve(SECTOR_LOAD * 1.01), solve(SECTOR_LOAD * 0.99));
     let slope = (up.integrals.load - dn.integrals.load) / (dn.state.reference - up.state.reference);
     // Central difference of a smooth curve over ±1 %: second-order error ~1e-4 relative.
     assert_relative_eq!(mid.stiffness, slope, max_relative = 2e-3);
     assert!(mid.stiffness > 0.0);
+}
+
+/// Equilibrium of the sector pad on a point pivot at `along` of the arc (mid-width), on a
+/// 33 × 33 grid, with pad load `load` (N) and crown `crown` (m).
+fn coarse_sector_equilibrium(
+    along: f64,
+    load: f64,
+    crown: f64,
+) -> Result<Equilibrium, SolverError> {
+    let s = pads::solver(
+        sector(),
+        sector_speed(),
+        point(along, 0.5),
+        33,
+        33,
+        settings(),
+    );
+    let mut pad = IsothermalPad::new(s, MU);
+    equilibrium::tilting_pad(&mut pad, load, crown, &EquilibriumSettings::default())
 }
