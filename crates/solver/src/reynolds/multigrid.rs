@@ -5,13 +5,15 @@
 //! * Transfers: bilinear prolongation `P` (on the possibly non-uniform node positions) and
 //!   restriction `R = Pᵀ`, which for the integrated finite-volume equations is the right
 //!   scaling (a coarse control volume sums the fine ones).
-//! * Smoother: red–black Gauss–Seidel with over-relaxation (ω = 1.15 by default), projected onto
-//!   `p ≥ p_cav` on the level that carries the full solution.
-//! * Cycle: V(1,1) by default. The residual computed after the pre-smoothing is that of a valid
-//!   iterate, so it serves as the convergence check at no extra cost. With ω = 1 the residual of
-//!   the black nodes after a red–black sweep is exactly zero and only the red residual is
-//!   computed. On the coarse levels the correction starts from zero, so their first residual is
-//!   their right-hand side.
+//! * Smoother: red–black Gauss–Seidel with over-relaxation (ω = 1.2 by default), projected onto
+//!   `p ≥ p_cav` on the level that carries the full solution; both colours are swept in one
+//!   pass over memory (red of row `j`, then black of row `j − 1`). Where every fine node couples
+//!   at least 0.8 times as strongly along η as along ξ (narrow sectors, long pads), the
+//!   unconstrained levels use zebra line Gauss–Seidel along η instead: point smoothing slows
+//!   down on anisotropic cells, line relaxation along the strong direction does not.
+//! * Cycle: V(1,1) by default. The pre-smoothing pass also produces the residual of the
+//!   smoothed iterate (a black node's residual is a by-product of its update), which restricts
+//!   to the coarse level and serves as the convergence check at no extra pass.
 //! * Memory: every level stores its node arrays in an even/odd-column split layout (each row
 //!   holds its even columns, then its odd columns). A colour of a red–black sweep is then a
 //!   unit-stride loop over one half-row, which the compiler vectorises.
@@ -34,6 +36,30 @@ use super::stencil::Level;
 
 /// Smallest number of intervals per direction of a coarse level.
 const MIN_COARSE_INTERVALS: usize = 8;
+
+/// Line smoothing along η is used when every fine node couples at least this strongly along η
+/// as along ξ (ratio of the summed north/south to east/west conductances): below it the
+/// ξ-coupling dominates somewhere, which η-lines do not smooth better than points.
+const LINE_THRESHOLD: f64 = 0.8;
+
+/// Smallest ratio over the interior nodes of `level` of the η-conductances (north plus south)
+/// to the ξ-conductances (east plus west).
+fn weakest_eta_coupling(level: &Level) -> f64 {
+    let (nx, ny) = (level.grid.nx, level.grid.ny);
+    let w = nx + 1;
+    let mut m = f64::INFINITY;
+    for j in 1..ny {
+        for i in 1..nx {
+            let k = j * w + i;
+            let eta = level.cn[k] + level.cn[k - w];
+            let xi = level.ce[k] + level.ce[k - 1];
+            if xi > 0.0 {
+                m = m.min(eta / xi);
+            }
+        }
+    }
+    m
+}
 
 /// Even/odd-column split layout of the nodes of one level.
 #[derive(Clone, Copy, Debug)]
@@ -72,17 +98,27 @@ impl Layout {
     }
 
     fn to_split(self, natural: &[f64], split: &mut [f64]) {
-        for j in 0..=self.ny {
-            for i in 0..=self.nx {
-                split[self.pos(i, j)] = natural[j * self.w + i];
+        let (w, he) = (self.w, self.he);
+        for (nat, sp) in natural.chunks_exact(w).zip(split.chunks_exact_mut(w)) {
+            let (even, odd) = sp.split_at_mut(he);
+            for (m, x) in even.iter_mut().enumerate() {
+                *x = nat[2 * m];
+            }
+            for (m, x) in odd.iter_mut().enumerate() {
+                *x = nat[2 * m + 1];
             }
         }
     }
 
     fn to_natural(self, split: &[f64], natural: &mut [f64]) {
-        for j in 0..=self.ny {
-            for i in 0..=self.nx {
-                natural[j * self.w + i] = split[self.pos(i, j)];
+        let (w, he) = (self.w, self.he);
+        for (sp, nat) in split.chunks_exact(w).zip(natural.chunks_exact_mut(w)) {
+            let (even, odd) = sp.split_at(he);
+            for (m, &x) in even.iter().enumerate() {
+                nat[2 * m] = x;
+            }
+            for (m, &x) in odd.iter().enumerate() {
+                nat[2 * m + 1] = x;
             }
         }
     }
@@ -124,15 +160,17 @@ struct Ops {
     f: Vec<f64>,
     r: Vec<f64>,
     excl: Exclusion,
+    /// Factors of the tridiagonal systems along η (one per column, the five-point operator with
+    /// its east and west neighbours held): forward multipliers `g_j = c_n(j − 1)/β_{j − 1}` and
+    /// inverse pivots `1/β_j`, split layout.
+    line_g: Vec<f64>,
+    line_ib: Vec<f64>,
     /// For odd column `i = 2m + 1`: weight of coarse node `m` (left) and `m + 1` (right).
     wl: Vec<f64>,
     wr: Vec<f64>,
     /// For odd row `j`: weight of coarse row `(j − 1)/2` (below) and `(j + 1)/2` (above).
     wyl: Vec<f64>,
     wyr: Vec<f64>,
-    /// True when the black nodes' residual is known to be zero (after an unconstrained,
-    /// unrelaxed red–black sweep), so that only the red residual needs computing.
-    black_clean: bool,
 }
 
 impl Ops {
@@ -165,11 +203,12 @@ impl Ops {
             f: vec![0.0; n],
             r: vec![0.0; n],
             excl: Exclusion::new(n),
+            line_g: vec![0.0; n],
+            line_ib: vec![0.0; n],
             wl,
             wr,
             wyl,
             wyr,
-            black_clean: false,
         }
     }
 
@@ -178,6 +217,24 @@ impl Ops {
         self.lay.to_split(&level.cn, &mut self.cn);
         self.lay.to_split(&level.inv_diag, &mut self.id);
         self.lay.to_split(&level.diag, &mut self.d);
+        // Thomas factorisation of every column's tridiagonal system
+        // `d_j u_j − c_n(j) u_{j+1} − c_n(j − 1) u_{j−1}`, all columns at once, row by row.
+        let lay = self.lay;
+        let w = lay.w;
+        for j in 1..lay.ny {
+            let row = j * w;
+            for k in row..row + w {
+                if j == 1 {
+                    self.line_g[k] = 0.0;
+                    self.line_ib[k] = 1.0 / self.d[k];
+                } else {
+                    let c = self.cn[k - w];
+                    let g = c * self.line_ib[k - w];
+                    self.line_g[k] = g;
+                    self.line_ib[k] = 1.0 / (self.d[k] - c * g);
+                }
+            }
+        }
     }
 }
 
@@ -188,21 +245,29 @@ pub struct CycleSettings {
     pub pre_sweeps: usize,
     /// Smoothing sweeps after the coarse correction.
     pub post_sweeps: usize,
-    /// Relaxation factor of the Gauss–Seidel smoother.
+    /// Relaxation factor of the point Gauss–Seidel smoother (line smoothing is unrelaxed).
     pub omega: f64,
     /// Number of coarse-grid visits per level (1: V-cycle, 2: W-cycle).
     pub gamma: usize,
+    /// Smooth the unconstrained levels by zebra line Gauss–Seidel along η (radial lines on a
+    /// sector) instead of point red–black Gauss–Seidel, where every node of the finest level
+    /// couples at least 0.8 times as strongly along η as along ξ. Point smoothing slows down
+    /// as the cells grow anisotropic (narrow sectors, pads wider along the motion than
+    /// across); line smoothing keeps about three cycles after full multigrid there.
+    pub lines: bool,
 }
 
 impl Default for CycleSettings {
-    /// V(1,1) with over-relaxed red–black Gauss–Seidel, ω = 1.15: the fastest of the
+    /// V(1,1) with over-relaxed red–black Gauss–Seidel, ω = 1.2, or unrelaxed line
+    /// Gauss–Seidel along η where the cells couple more strongly along η: the fastest of the
     /// settings measured on the benchmark pads (see the README's performance section).
     fn default() -> Self {
         CycleSettings {
             pre_sweeps: 1,
             post_sweeps: 1,
-            omega: 1.15,
+            omega: 1.2,
             gamma: 1,
+            lines: true,
         }
     }
 }
@@ -236,6 +301,10 @@ pub struct Multigrid {
     solution: Vec<f64>,
     /// Cycle parameters.
     pub cycle: CycleSettings,
+    /// Whether the unconstrained levels are smoothed along lines (decided at assembly).
+    use_lines: bool,
+    /// Smallest ratio of η- to ξ-conductance over the finest level's nodes.
+    coupling_ratio: f64,
 }
 
 impl Multigrid {
@@ -268,6 +337,8 @@ impl Multigrid {
             rhs: vec![0.0; n],
             solution: vec![0.0; n],
             cycle: CycleSettings::default(),
+            use_lines: false,
+            coupling_ratio: 1.0,
             levels,
         }
     }
@@ -306,6 +377,8 @@ impl Multigrid {
             }
         }
         self.coarse.factor(self.levels.last().unwrap());
+        self.coupling_ratio = weakest_eta_coupling(&self.levels[0]);
+        self.use_lines = self.cycle.lines && self.coupling_ratio >= LINE_THRESHOLD;
         hmin
     }
 
@@ -335,7 +408,6 @@ impl Multigrid {
         self.solution.copy_from_slice(p);
         let o = &mut self.ops[0];
         o.lay.to_split(p, &mut o.u);
-        o.black_clean = false;
     }
 
     /// Euclidean norm of the finest right-hand side.
@@ -367,11 +439,8 @@ impl Multigrid {
         let mut cycles = 0;
         let outcome = loop {
             // Pre-smoothing belongs to the cycle, but the residual after it is that of a valid
-            // iterate: check convergence there, at no extra cost.
-            if cycles > 0 || !cold {
-                self.pre_smooth_top(0, floor);
-            }
-            let rel = self.top_residual(0, floor) / bnorm;
+            // iterate and comes out of the same pass: check convergence there.
+            let rel = self.smooth_residual_top(0, floor) / bnorm;
             if rel <= tolerance || cycles >= max_cycles || !rel.is_finite() {
                 break Outcome {
                     cycles,
@@ -392,8 +461,7 @@ impl Multigrid {
     /// removes for the cost of one residual evaluation.
     fn scale_start(&mut self, floor: Option<f64>) {
         let o = &mut self.ops[0];
-        o.black_clean = false;
-        residual(o, false, false);
+        residual(o, false);
         let (mut fa, mut aa) = (0.0, 0.0);
         for (f, r) in o.f.iter().zip(&o.r) {
             let au = f - r;
@@ -409,12 +477,17 @@ impl Multigrid {
         }
     }
 
-    /// Residual of the top level `l` into its `r` (with the exclusion of cavitated nodes if
-    /// projected); returns the norm of the (projected) residual.
-    fn top_residual(&mut self, l: usize, floor: Option<f64>) -> f64 {
+    /// Pre-smooths the top level `l` (projected if `floor`) and leaves the residual of the
+    /// smoothed iterate in its `r`, with the exclusion of cavitated nodes if projected;
+    /// returns the norm of the (projected) residual.
+    fn smooth_residual_top(&mut self, l: usize, floor: Option<f64>) -> f64 {
+        let c = self.cycle;
         let o = &mut self.ops[l];
-        let red_only = o.black_clean && floor.is_none();
-        let sum = residual(o, red_only, false);
+        let sum = if c.pre_sweeps == 0 {
+            residual(o, false)
+        } else {
+            smooth(o, c.pre_sweeps, floor, c.omega, false, true, self.use_lines)
+        };
         match floor {
             None => sum.sqrt(),
             Some(fl) => {
@@ -464,30 +537,17 @@ impl Multigrid {
                 let (fo, co) = self.ops.split_at_mut(l + 1);
                 let (xi, eta) = (&self.levels[l].grid.xi, &self.levels[l].grid.eta);
                 interpolate_cubic(&mut fo[l], xi, eta, &co[0].u, &mut self.row);
-                fo[l].black_clean = false;
             }
             if let Some(fl) = floor {
                 self.ops[l].u.iter_mut().for_each(|x| *x = x.max(fl));
             }
-            self.pre_smooth_top(l, floor);
-            self.top_residual(l, floor);
+            self.smooth_residual_top(l, floor);
             self.cycle_from_residual(l, floor);
         }
     }
 
-    /// Pre-smoothing of the top level (projected if `floor`).
-    fn pre_smooth_top(&mut self, l: usize, floor: Option<f64>) {
-        let c = self.cycle;
-        if c.pre_sweeps == 0 {
-            return;
-        }
-        let o = &mut self.ops[l];
-        smooth(o, c.pre_sweeps, floor, c.omega, false);
-        o.black_clean = floor.is_none() && c.omega == 1.0;
-    }
-
     /// Completes a cycle on top level `top` whose residual (and, if projected, exclusion) has
-    /// just been computed by [`Multigrid::top_residual`].
+    /// just been computed by [`Multigrid::smooth_residual_top`].
     fn cycle_from_residual(&mut self, top: usize, floor: Option<f64>) {
         for o in &mut self.ops[top + 1..] {
             o.excl.active = false;
@@ -532,21 +592,11 @@ impl Multigrid {
                 }
             }
             coarse.u.fill(0.0);
-            coarse.black_clean = false;
         }
-        for visit in 0..c.gamma.max(1) {
+        for _ in 0..c.gamma.max(1) {
             if l + 1 == last {
                 self.solve_coarsest(None, false);
             } else {
-                if visit == 0 {
-                    // Zero start: the residual is the right-hand side.
-                    let o = &mut self.ops[l + 1];
-                    o.r.copy_from_slice(&o.f);
-                } else {
-                    let o = &mut self.ops[l + 1];
-                    let corrected = o.excl.active;
-                    residual(o, o.black_clean && !corrected, corrected);
-                }
                 self.pre_smooth(l + 1);
                 self.correct(l + 1, top, floor);
             }
@@ -562,20 +612,36 @@ impl Multigrid {
             o.u.iter_mut().for_each(|x| *x = x.max(flv));
         }
         let corrected = l != top && o.excl.active;
-        smooth(o, c.post_sweeps, fl, c.omega, corrected);
-        o.black_clean = c.post_sweeps > 0 && fl.is_none() && !corrected && c.omega == 1.0;
+        smooth(
+            o,
+            c.post_sweeps,
+            fl,
+            c.omega,
+            corrected,
+            false,
+            self.use_lines,
+        );
     }
 
+    /// Pre-smoothing of a coarse level, leaving the residual of the smoothed correction in its
+    /// `r` (with zero pre-sweeps, the residual of the current correction).
     fn pre_smooth(&mut self, l: usize) {
         let c = self.cycle;
-        if c.pre_sweeps == 0 {
-            return;
-        }
         let o = &mut self.ops[l];
         let corrected = o.excl.active;
-        smooth(o, c.pre_sweeps, None, c.omega, corrected);
-        let red_only = c.omega == 1.0 && !corrected;
-        residual(o, red_only, corrected);
+        if c.pre_sweeps == 0 {
+            residual(o, corrected);
+        } else {
+            smooth(
+                o,
+                c.pre_sweeps,
+                None,
+                c.omega,
+                corrected,
+                true,
+                self.use_lines,
+            );
+        }
     }
 
     fn solve_coarsest(&mut self, floor: Option<f64>, is_top: bool) {
@@ -594,8 +660,7 @@ impl Multigrid {
                     o.u.iter_mut().for_each(|x| *x = x.max(fl));
                 }
                 let sweeps = 4 * (lay.nx + lay.ny);
-                smooth(o, sweeps, Some(fl), 1.0, false);
-                o.black_clean = false;
+                smooth(o, sweeps, Some(fl), 1.0, false, false, false);
             }
             _ if o.excl.active => {
                 // Masked solve: rows of excluded nodes become identities.
@@ -720,9 +785,22 @@ fn half_row(lay: &Layout, part_even: bool) -> (usize, usize, usize, usize) {
 }
 
 /// Red–black Gauss–Seidel sweeps of the five-point system on the interior nodes (red:
-/// `i + j` even, first), projected on `u ≥ floor` if a floor is given; with `corrected`, the
+/// `i + j` even), projected on `u ≥ floor` if a floor is given; with `corrected`, the
 /// excluded nodes of the level are held fixed and the boundary-corrected diagonal is used.
-fn smooth(o: &mut Ops, sweeps: usize, floor: Option<f64>, omega: f64, corrected: bool) {
+///
+/// With `with_residual`, the last sweep also leaves the residual `r = f − A u` of the swept
+/// iterate in the level's `r` (zero on the edges and, if `corrected`, on excluded nodes) and
+/// returns `Σ r²`; otherwise it returns zero. See [`Kernel::sweep`] for how the two colours and
+/// the residual share one pass over memory.
+fn smooth(
+    o: &mut Ops,
+    sweeps: usize,
+    floor: Option<f64>,
+    omega: f64,
+    corrected: bool,
+    with_residual: bool,
+    lines: bool,
+) -> f64 {
     let Ops {
         lay,
         ce,
@@ -731,6 +809,401 @@ fn smooth(o: &mut Ops, sweeps: usize, floor: Option<f64>, omega: f64, corrected:
         d,
         u,
         f,
+        r,
+        excl,
+        line_g,
+        line_ib,
+        ..
+    } = o;
+    let (id, d, mask): (&[f64], &[f64], &[bool]) = if corrected {
+        (&excl.inv_diag, &excl.diag, &excl.mask)
+    } else {
+        (id, d, &[])
+    };
+    let k = Kernel {
+        lay: *lay,
+        ce,
+        cn,
+        id,
+        d,
+        f,
+        mask,
+        line_g,
+        line_ib,
+    };
+    if lines && floor.is_none() && !corrected {
+        // Exact line solves need no over-relaxation.
+        let mut sum = 0.0;
+        for s in 0..sweeps {
+            let res = with_residual && s + 1 == sweeps;
+            sum = if res {
+                k.line_sweep::<true>(u, r, 1.0)
+            } else {
+                k.line_sweep::<false>(u, r, 1.0)
+            };
+        }
+        return sum;
+    }
+    let mut sum = 0.0;
+    for s in 0..sweeps {
+        let res = with_residual && s + 1 == sweeps;
+        let fl = floor.unwrap_or(0.0);
+        sum = match (floor.is_some(), corrected, res) {
+            (false, false, false) => k.sweep::<false, false, false>(u, r, omega, fl),
+            (true, false, false) => k.sweep::<true, false, false>(u, r, omega, fl),
+            (false, true, false) => k.sweep::<false, true, false>(u, r, omega, fl),
+            (true, true, false) => k.sweep::<true, true, false>(u, r, omega, fl),
+            (false, false, true) => k.sweep::<false, false, true>(u, r, omega, fl),
+            (true, false, true) => k.sweep::<true, false, true>(u, r, omega, fl),
+            (false, true, true) => k.sweep::<false, true, true>(u, r, omega, fl),
+            (true, true, true) => k.sweep::<true, true, true>(u, r, omega, fl),
+        };
+    }
+    sum
+}
+
+/// The read-only data of a sweep or residual over one level.
+struct Kernel<'a> {
+    lay: Layout,
+    ce: &'a [f64],
+    cn: &'a [f64],
+    id: &'a [f64],
+    d: &'a [f64],
+    f: &'a [f64],
+    mask: &'a [bool],
+    line_g: &'a [f64],
+    line_ib: &'a [f64],
+}
+
+/// Offsets of one half-row of row `j` in split layout: the start of its own entries (`s`), of
+/// its west and east neighbours in the other half, and the entry count `n` (zero if none).
+#[derive(Clone, Copy)]
+struct HalfRow {
+    row: usize,
+    s: usize,
+    west: usize,
+    east: usize,
+    n: usize,
+}
+
+impl HalfRow {
+    #[inline(always)]
+    fn new(lay: &Layout, j: usize, part_even: bool) -> Self {
+        let (m0, m1, ws, es) = half_row(lay, part_even);
+        let row = j * lay.w;
+        let (self_off, side_off) = if part_even { (0, lay.he) } else { (lay.he, 0) };
+        HalfRow {
+            row,
+            s: row + self_off + m0,
+            west: row + side_off + ws,
+            east: row + side_off + es,
+            n: m1.saturating_sub(m0),
+        }
+    }
+}
+
+impl Kernel<'_> {
+    /// One zebra sweep of line Gauss–Seidel along η: every even column's tridiagonal system
+    /// (the integrated Reynolds equations of the column with the east and west neighbours held,
+    /// conductances m³/(Pa·s), pressures Pa, sources m³/s) is solved exactly by the Thomas
+    /// algorithm, then every odd column's. The columns of one colour are independent, so the
+    /// elimination runs row by row over unit-stride half-rows and vectorises across columns.
+    /// The result is relaxed by `omega` (1: plain line Gauss–Seidel). `r` serves as scratch
+    /// for the eliminated right-hand sides.
+    ///
+    /// With `RES` the residual of the new iterate is left in `r` and `Σ r²` returned; for
+    /// `omega = 1` the odd columns' residual is zero by construction (their line equations
+    /// hold with the final even columns) and only the even half is evaluated.
+    fn line_sweep<const RES: bool>(&self, u: &mut [f64], r: &mut [f64], omega: f64) -> f64 {
+        let lay = self.lay;
+        let (w, ny) = (lay.w, lay.ny);
+        for part_even in [true, false] {
+            // Forward elimination.
+            for j in 1..ny {
+                let hr = HalfRow::new(&lay, j, part_even);
+                let (s, n) = (hr.s, hr.n);
+                if n == 0 {
+                    continue;
+                }
+                let (lo, hi) = r.split_at_mut(s);
+                let prev = &lo[s - w..s - w + n];
+                let out = &mut hi[..n];
+                let west = &u[hr.west..hr.west + n];
+                let east = &u[hr.east..hr.east + n];
+                let ce_e = &self.ce[s..s + n];
+                let ce_w = &self.ce[hr.west..hr.west + n];
+                let fr = &self.f[s..s + n];
+                let g = &self.line_g[s..s + n];
+                for k in 0..n {
+                    out[k] = fr[k] + ce_e[k] * east[k] + ce_w[k] * west[k] + g[k] * prev[k];
+                }
+                if j == 1 || j == ny - 1 {
+                    let (nb, c) = if j == 1 {
+                        (&u[s - w..s - w + n], &self.cn[s - w..s - w + n])
+                    } else {
+                        (&u[s + w..s + w + n], &self.cn[s..s + n])
+                    };
+                    for k in 0..n {
+                        out[k] += c[k] * nb[k];
+                    }
+                }
+            }
+            // Back substitution and relaxation.
+            for j in (1..ny).rev() {
+                let hr = HalfRow::new(&lay, j, part_even);
+                let (s, n) = (hr.s, hr.n);
+                if n == 0 {
+                    continue;
+                }
+                let (lo, hi) = r.split_at_mut(s + n);
+                let y = &mut lo[s..s + n];
+                let ib = &self.line_ib[s..s + n];
+                let me = &mut u[s..s + n];
+                if j + 1 < ny {
+                    let next = &hi[w - n..w];
+                    let c = &self.cn[s..s + n];
+                    for k in 0..n {
+                        let v = (y[k] + c[k] * next[k]) * ib[k];
+                        y[k] = v;
+                        me[k] += omega * (v - me[k]);
+                    }
+                } else {
+                    for k in 0..n {
+                        let v = y[k] * ib[k];
+                        y[k] = v;
+                        me[k] += omega * (v - me[k]);
+                    }
+                }
+            }
+        }
+        if !RES {
+            return 0.0;
+        }
+        if omega == 1.0 {
+            r.fill(0.0);
+            let mut sum = 0.0;
+            for j in 1..ny {
+                sum += self.residual_half::<false>(u, r, j, true);
+            }
+            sum
+        } else {
+            self.residual::<false>(u, r)
+        }
+    }
+
+    /// One red–black Gauss–Seidel sweep (over-relaxed by `omega`) of the integrated
+    /// finite-volume Reynolds equations `d_k u_k − Σ c u_nb = f_k` (conductances in m³/(Pa·s),
+    /// pressures in Pa, sources in m³/s) in a single pass over memory: the red half of row `j`
+    /// is updated, then the black half of row `j − 1`, whose red neighbours are then final.
+    /// The result is exactly that of a full red sweep followed by a full black sweep, while
+    /// each coefficient row is loaded from cache once rather than twice.
+    ///
+    /// With `RES`, the residual of the new iterate is produced in the same pass: a black node's
+    /// residual is `sum − d u_new`, where `sum = f + Σ c u_nb` was formed for its update (its red
+    /// neighbours do not change afterwards); the red residual of row `j − 2` is computed once
+    /// the black rows around it are final. Returns `Σ r²` (zero without `RES`).
+    #[inline(always)]
+    fn sweep<const FLOOR: bool, const MASK: bool, const RES: bool>(
+        &self,
+        u: &mut [f64],
+        r: &mut [f64],
+        omega: f64,
+        floor: f64,
+    ) -> f64 {
+        let lay = self.lay;
+        let ny = lay.ny;
+        let mut sum = 0.0;
+        if RES {
+            r[..lay.w].fill(0.0);
+            r[ny * lay.w..].fill(0.0);
+        }
+        for j in 1..=ny {
+            if j < ny {
+                // Red nodes of row j: the even half on even rows.
+                self.update::<FLOOR, MASK, false>(u, r, j, j % 2 == 0, omega, floor);
+            }
+            let jb = j - 1;
+            if jb >= 1 {
+                sum += self.update::<FLOOR, MASK, RES>(u, r, jb, jb % 2 == 1, omega, floor);
+                if RES {
+                    let row = jb * lay.w;
+                    r[row + lay.pos(0, 0)] = 0.0;
+                    r[row + lay.pos(lay.nx, 0)] = 0.0;
+                }
+            }
+            if RES && j >= 3 {
+                let jr = j - 2;
+                sum += self.residual_half::<MASK>(u, r, jr, jr.is_multiple_of(2));
+            }
+        }
+        if RES && ny >= 2 {
+            let jr = ny - 1;
+            sum += self.residual_half::<MASK>(u, r, jr, jr.is_multiple_of(2));
+        }
+        sum
+    }
+
+    /// Gauss–Seidel update of one half-row (`part_even`: the even columns) of row `j`; with
+    /// `RES` the residual of the updated nodes goes to `r` and `Σ r²` is returned.
+    #[inline(always)]
+    fn update<const FLOOR: bool, const MASK: bool, const RES: bool>(
+        &self,
+        u: &mut [f64],
+        r: &mut [f64],
+        j: usize,
+        part_even: bool,
+        omega: f64,
+        floor: f64,
+    ) -> f64 {
+        let lay = self.lay;
+        let w = lay.w;
+        let hr = HalfRow::new(&lay, j, part_even);
+        let n = hr.n;
+        if n == 0 {
+            return 0.0;
+        }
+        let s = hr.s;
+        let (lo, rest) = u.split_at_mut(hr.row);
+        let (cur, hi) = rest.split_at_mut(w);
+        let (cur_e, cur_o) = cur.split_at_mut(lay.he);
+        let (me_all, side): (&mut [f64], &[f64]) = if part_even {
+            (cur_e, cur_o)
+        } else {
+            (cur_o, cur_e)
+        };
+        let own = s - hr.row - if part_even { 0 } else { lay.he };
+        let me = &mut me_all[own..own + n];
+        let west = &side[hr.west - hr.row - if part_even { lay.he } else { 0 }..][..n];
+        let east = &side[hr.east - hr.row - if part_even { lay.he } else { 0 }..][..n];
+        let below = &lo[s - w..s - w + n];
+        let above = &hi[s - hr.row..s - hr.row + n];
+        let ce_e = &self.ce[s..s + n];
+        let ce_w = &self.ce[hr.west..hr.west + n];
+        let cn_n = &self.cn[s..s + n];
+        let cn_s = &self.cn[s - w..s - w + n];
+        let idr = &self.id[s..s + n];
+        let fr = &self.f[s..s + n];
+        let mk: &[bool] = if MASK { &self.mask[s..s + n] } else { &[] };
+        let dr: &[f64] = if RES { &self.d[s..s + n] } else { &[] };
+        let out: &mut [f64] = if RES { &mut r[s..s + n] } else { &mut [] };
+        for k in 0..n {
+            let sum = fr[k]
+                + ce_e[k] * east[k]
+                + ce_w[k] * west[k]
+                + cn_n[k] * above[k]
+                + cn_s[k] * below[k];
+            let gs = sum * idr[k];
+            let mut v = me[k] + omega * (gs - me[k]);
+            if FLOOR {
+                v = if v < floor { floor } else { v };
+            }
+            if MASK && mk[k] {
+                v = me[k];
+            }
+            me[k] = v;
+            if RES {
+                let mut rk = sum - dr[k] * v;
+                if MASK && mk[k] {
+                    rk = 0.0;
+                }
+                out[k] = rk;
+            }
+        }
+        if RES { sum_sq(out) } else { 0.0 }
+    }
+
+    /// Residual `r = f − A u` of one half-row of row `j` (zero on excluded nodes with `MASK`);
+    /// returns `Σ r²` over it.
+    #[inline(always)]
+    fn residual_half<const MASK: bool>(
+        &self,
+        u: &[f64],
+        r: &mut [f64],
+        j: usize,
+        part_even: bool,
+    ) -> f64 {
+        let w = self.lay.w;
+        let hr = HalfRow::new(&self.lay, j, part_even);
+        let (s, n) = (hr.s, hr.n);
+        if n == 0 {
+            return 0.0;
+        }
+        let me = &u[s..s + n];
+        let west = &u[hr.west..hr.west + n];
+        let east = &u[hr.east..hr.east + n];
+        let below = &u[s - w..s - w + n];
+        let above = &u[s + w..s + w + n];
+        let ce_e = &self.ce[s..s + n];
+        let ce_w = &self.ce[hr.west..hr.west + n];
+        let cn_n = &self.cn[s..s + n];
+        let cn_s = &self.cn[s - w..s - w + n];
+        let dr = &self.d[s..s + n];
+        let fr = &self.f[s..s + n];
+        let mk: &[bool] = if MASK { &self.mask[s..s + n] } else { &[] };
+        let out = &mut r[s..s + n];
+        for k in 0..n {
+            let au = dr[k] * me[k]
+                - ce_e[k] * east[k]
+                - ce_w[k] * west[k]
+                - cn_n[k] * above[k]
+                - cn_s[k] * below[k];
+            let mut rk = fr[k] - au;
+            if MASK && mk[k] {
+                rk = 0.0;
+            }
+            out[k] = rk;
+        }
+        sum_sq(out)
+    }
+
+    /// Residual `r = f − A u` of all interior nodes (edges zero); returns `Σ r²`.
+    fn residual<const MASK: bool>(&self, u: &[f64], r: &mut [f64]) -> f64 {
+        let lay = self.lay;
+        r[..lay.w].fill(0.0);
+        r[lay.ny * lay.w..].fill(0.0);
+        let mut sum = 0.0;
+        for j in 1..lay.ny {
+            let row = j * lay.w;
+            r[row + lay.pos(0, 0)] = 0.0;
+            r[row + lay.pos(lay.nx, 0)] = 0.0;
+            sum += self.residual_half::<MASK>(u, r, j, true);
+            sum += self.residual_half::<MASK>(u, r, j, false);
+        }
+        sum
+    }
+}
+
+/// `Σ x²` with eight independent partial sums, so that the loop vectorises (a single running
+/// sum is a serial dependency chain the compiler may not reorder).
+#[inline(always)]
+fn sum_sq(x: &[f64]) -> f64 {
+    let mut acc = [0.0; 8];
+    let chunks = x.chunks_exact(8);
+    let tail = chunks.remainder();
+    for c in chunks {
+        for q in 0..8 {
+            acc[q] += c[q] * c[q];
+        }
+    }
+    let mut s = tail.iter().map(|v| v * v).sum::<f64>();
+    for a in acc {
+        s += a;
+    }
+    s
+}
+
+/// Residual of a level into its `r`; `corrected` uses the boundary-corrected diagonal of a
+/// coarse level with excluded nodes (whose entries are then zero). Returns `Σ r²`.
+fn residual(o: &mut Ops, corrected: bool) -> f64 {
+    let Ops {
+        lay,
+        ce,
+        cn,
+        id,
+        d,
+        u,
+        f,
+        r,
         excl,
         ..
     } = o;
@@ -747,186 +1220,14 @@ fn smooth(o: &mut Ops, sweeps: usize, floor: Option<f64>, omega: f64, corrected:
         d,
         f,
         mask,
+        line_g: &[],
+        line_ib: &[],
     };
-    for _ in 0..sweeps {
-        for colour in 0..2 {
-            match (floor, corrected) {
-                (None, false) => k.colour::<false, false>(u, colour, omega, 0.0),
-                (Some(fl), false) => k.colour::<true, false>(u, colour, omega, fl),
-                (None, true) => k.colour::<false, true>(u, colour, omega, 0.0),
-                (Some(fl), true) => k.colour::<true, true>(u, colour, omega, fl),
-            }
-        }
-    }
-}
-
-/// The read-only data of a sweep or residual over one level.
-struct Kernel<'a> {
-    lay: Layout,
-    ce: &'a [f64],
-    cn: &'a [f64],
-    id: &'a [f64],
-    d: &'a [f64],
-    f: &'a [f64],
-    mask: &'a [bool],
-}
-
-impl Kernel<'_> {
-    /// One colour of a red–black sweep over unit-stride half-rows.
-    #[inline(always)]
-    fn colour<const FLOOR: bool, const MASK: bool>(
-        &self,
-        u: &mut [f64],
-        colour: usize,
-        omega: f64,
-        floor: f64,
-    ) {
-        let lay = self.lay;
-        let (w, he) = (lay.w, lay.he);
-        for j in 1..lay.ny {
-            let part_even = (j + colour).is_multiple_of(2);
-            let (m0, m1, ws, es) = half_row(&lay, part_even);
-            if m1 <= m0 {
-                continue;
-            }
-            let n = m1 - m0;
-            let row = j * w;
-            let (self_off, side_off) = if part_even { (0, he) } else { (he, 0) };
-            let (lo, rest) = u.split_at_mut(row);
-            let (cur, hi) = rest.split_at_mut(w);
-            let (cur_e, cur_o) = cur.split_at_mut(he);
-            let (me, side): (&mut [f64], &[f64]) = if part_even {
-                (cur_e, cur_o)
-            } else {
-                (cur_o, cur_e)
-            };
-            let me = &mut me[m0..m1];
-            let west = &side[ws..ws + n];
-            let east = &side[es..es + n];
-            let s = self_off + m0;
-            let below = &lo[row - w + s..row - w + s + n];
-            let above = &hi[s..s + n];
-            let ce_e = &self.ce[row + s..row + s + n];
-            let ce_w = &self.ce[row + side_off + ws..row + side_off + ws + n];
-            let cn_n = &self.cn[row + s..row + s + n];
-            let cn_s = &self.cn[row - w + s..row - w + s + n];
-            let idr = &self.id[row + s..row + s + n];
-            let fr = &self.f[row + s..row + s + n];
-            let mk: &[bool] = if MASK {
-                &self.mask[row + s..row + s + n]
-            } else {
-                &[]
-            };
-            for k in 0..n {
-                let sum = fr[k]
-                    + ce_e[k] * east[k]
-                    + ce_w[k] * west[k]
-                    + cn_n[k] * above[k]
-                    + cn_s[k] * below[k];
-                let gs = sum * idr[k];
-                let mut v = me[k] + omega * (gs - me[k]);
-                if FLOOR {
-                    v = if v < floor { floor } else { v };
-                }
-                if MASK && mk[k] {
-                    v = me[k];
-                }
-                me[k] = v;
-            }
-        }
-    }
-
-    /// Residual `r = f − A u` of the interior nodes (boundary entries zero); with
-    /// `red_only`, the black entries are set to zero without computing them. Returns `Σ r²`.
-    fn residual(&self, u: &[f64], r: &mut [f64], red_only: bool) -> f64 {
-        let mut sum = 0.0;
-        let lay = self.lay;
-        let (w, he) = (lay.w, lay.he);
-        r[..w].fill(0.0);
-        r[lay.ny * w..].fill(0.0);
-        for j in 1..lay.ny {
-            let row = j * w;
-            let rrow = &mut r[row..row + w];
-            rrow.fill(0.0);
-            for part_even in [true, false] {
-                // Red nodes: (i + j) even, i.e. the even half on even rows.
-                if red_only && part_even != (j % 2 == 0) {
-                    continue;
-                }
-                let (m0, m1, ws, es) = half_row(&lay, part_even);
-                if m1 <= m0 {
-                    continue;
-                }
-                let n = m1 - m0;
-                let (self_off, side_off) = if part_even { (0, he) } else { (he, 0) };
-                let s = self_off + m0;
-                let me = &u[row + s..row + s + n];
-                let west = &u[row + side_off + ws..row + side_off + ws + n];
-                let east = &u[row + side_off + es..row + side_off + es + n];
-                let below = &u[row - w + s..row - w + s + n];
-                let above = &u[row + w + s..row + w + s + n];
-                let ce_e = &self.ce[row + s..row + s + n];
-                let ce_w = &self.ce[row + side_off + ws..row + side_off + ws + n];
-                let cn_n = &self.cn[row + s..row + s + n];
-                let cn_s = &self.cn[row - w + s..row - w + s + n];
-                let dr = &self.d[row + s..row + s + n];
-                let fr = &self.f[row + s..row + s + n];
-                let out = &mut rrow[s..s + n];
-                for k in 0..n {
-                    let au = dr[k] * me[k]
-                        - ce_e[k] * east[k]
-                        - ce_w[k] * west[k]
-                        - cn_n[k] * above[k]
-                        - cn_s[k] * below[k];
-                    let rk = fr[k] - au;
-                    out[k] = rk;
-                    sum += rk * rk;
-                }
-            }
-        }
-        sum
-    }
-}
-
-/// Residual of a level into its `r`; `corrected` uses the boundary-corrected diagonal of a
-/// coarse level with excluded nodes (whose entries are then zeroed). Returns `Σ r²` (before
-/// the zeroing).
-fn residual(o: &mut Ops, red_only: bool, corrected: bool) -> f64 {
-    let Ops {
-        lay,
-        ce,
-        cn,
-        id,
-        d,
-        u,
-        f,
-        r,
-        excl,
-        ..
-    } = o;
-    let (id, d): (&[f64], &[f64]) = if corrected {
-        (&excl.inv_diag, &excl.diag)
-    } else {
-        (id, d)
-    };
-    let sum = Kernel {
-        lay: *lay,
-        ce,
-        cn,
-        id,
-        d,
-        f,
-        mask: &[],
-    }
-    .residual(u, r, red_only);
     if corrected {
-        for (r, &m) in r.iter_mut().zip(&excl.mask) {
-            if m {
-                *r = 0.0;
-            }
-        }
+        k.residual::<true>(u, r)
+    } else {
+        k.residual::<false>(u, r)
     }
-    sum
 }
 
 /// Restriction `R = Pᵀ` of the fine residual (or right-hand side) `r` onto the coarse
@@ -978,6 +1279,7 @@ fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) 
     let ho = w - he;
     // Coarse rows in natural column order: crow(J)[I], width cnx + 1.
     let cw = cnx + 1;
+    let (row_buf, line) = row_buf.split_at_mut((cny + 1) * cw);
     for jc in 0..=cny {
         let out = &mut row_buf[jc * cw..(jc + 1) * cw];
         for (ic, v) in out.iter_mut().enumerate() {
@@ -994,32 +1296,39 @@ fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) 
         };
         let ca = &row_buf[ja * cw..(ja + 1) * cw];
         let cb = &row_buf[jb * cw..(jb + 1) * cw];
+        // The coarse correction interpolated along η onto this fine row, at the coarse columns.
+        let lin = &mut line[..cw];
+        if b == 0.0 {
+            lin.copy_from_slice(ca);
+        } else {
+            for ((l, &x), &y) in lin.iter_mut().zip(ca).zip(cb) {
+                *l = a * x + b * y;
+            }
+        }
         let (ue, uo) = u[row..row + w].split_at_mut(he);
+        let no = ho.min(cnx);
         match mask {
             None => {
                 // Even columns i = 2I (interior I = 1..cnx−1).
-                for ic in 1..cnx {
-                    ue[ic] += a * ca[ic] + b * cb[ic];
+                for (x, &c) in ue[1..cnx].iter_mut().zip(&lin[1..cnx]) {
+                    *x += c;
                 }
                 // Odd columns i = 2m + 1 (m = 0..cnx−1) between coarse m and m + 1.
-                for m in 0..ho.min(cnx) {
-                    let left = a * ca[m] + b * cb[m];
-                    let right = a * ca[m + 1] + b * cb[m + 1];
-                    uo[m] += wl[m] * left + wr[m] * right;
+                let (l0, l1) = (&lin[..no], &lin[1..no + 1]);
+                for m in 0..no {
+                    uo[m] += wl[m] * l0[m] + wr[m] * l1[m];
                 }
             }
             Some(mk) => {
                 let (me, mo) = mk[row..row + w].split_at(he);
                 for ic in 1..cnx {
                     if !me[ic] {
-                        ue[ic] += a * ca[ic] + b * cb[ic];
+                        ue[ic] += lin[ic];
                     }
                 }
-                for m in 0..ho.min(cnx) {
+                for m in 0..no {
                     if !mo[m] {
-                        let left = a * ca[m] + b * cb[m];
-                        let right = a * ca[m + 1] + b * cb[m + 1];
-                        uo[m] += wl[m] * left + wr[m] * right;
+                        uo[m] += wl[m] * lin[m] + wr[m] * lin[m + 1];
                     }
                 }
             }
@@ -1051,7 +1360,6 @@ fn stencil_start(m: usize, n_coarse: usize) -> usize {
 /// direction; linear where the coarse level has fewer than four nodes across. Cubic
 /// interpolation of the solution keeps the fine residual of a full-multigrid start small, as
 /// the solution is smooth (linear interpolation is enough for corrections).
-#[allow(clippy::needless_range_loop)]
 fn interpolate_cubic(fine: &mut Ops, xi: &[f64], eta: &[f64], uc: &[f64], buf: &mut [f64]) {
     let fl = fine.lay;
     let (cnx, cny) = (fl.nx / 2, fl.ny / 2);
@@ -1061,38 +1369,64 @@ fn interpolate_cubic(fine: &mut Ops, xi: &[f64], eta: &[f64], uc: &[f64], buf: &
         return;
     }
     let cl = Layout::new(cnx, cny);
+    let cw = cl.w;
     let xc: Vec<f64> = (0..=cnx).map(|i| xi[2 * i]).collect();
     let yc: Vec<f64> = (0..=cny).map(|j| eta[2 * j]).collect();
-    // Coarse rows interpolated to every fine column: buf(J, i), width nx + 1.
+    // Coarse solution in natural order, then each coarse row interpolated to every fine
+    // column: rows(J, i), width nx + 1.
     let w = fl.w;
+    let (rows, rest) = buf.split_at_mut((cny + 1) * w);
+    let nat = &mut rest[..cl.len()];
+    cl.to_natural(uc, nat);
     let wx: Vec<(usize, [f64; 4])> = (0..cnx)
         .map(|m| {
             let s0 = stencil_start(m, cnx + 1);
             (s0, lagrange4(&xc, s0, xi[2 * m + 1]))
         })
         .collect();
-    for jc in 0..=cny {
-        let row = &mut buf[jc * w..(jc + 1) * w];
-        for ic in 0..=cnx {
-            row[2 * ic] = uc[cl.pos(ic, jc)];
+    for (crow, row) in nat.chunks_exact(cw).zip(rows.chunks_exact_mut(w)) {
+        for (ic, &v) in crow.iter().enumerate() {
+            row[2 * ic] = v;
         }
         for (m, &(s0, wt)) in wx.iter().enumerate() {
-            row[2 * m + 1] = (0..4).map(|q| wt[q] * uc[cl.pos(s0 + q, jc)]).sum();
+            let c = &crow[s0..s0 + 4];
+            row[2 * m + 1] = wt[0] * c[0] + wt[1] * c[1] + wt[2] * c[2] + wt[3] * c[3];
         }
     }
     fine.u.fill(0.0);
+    let he = fl.he;
     for (j, &eta_j) in eta.iter().enumerate().take(fl.ny).skip(1) {
-        let (s0, wt) = if j % 2 == 0 {
-            (j / 2, [1.0, 0.0, 0.0, 0.0])
+        let out = &mut fine.u[j * w..(j + 1) * w];
+        if j % 2 == 0 {
+            let src = &rows[(j / 2) * w..(j / 2 + 1) * w];
+            scatter_interior(out, he, src, |x| x);
         } else {
             let s0 = stencil_start((j - 1) / 2, cny + 1);
-            (s0, lagrange4(&yc, s0, eta_j))
-        };
-        let rows: [&[f64]; 4] =
-            std::array::from_fn(|q| &buf[(s0 + q).min(cny) * w..((s0 + q).min(cny) + 1) * w]);
-        for i in 1..fl.nx {
-            let v = (0..4).map(|q| wt[q] * rows[q][i]).sum();
-            fine.u[fl.pos(i, j)] = v;
+            let wt = lagrange4(&yc, s0, eta_j);
+            let r: [&[f64]; 4] = std::array::from_fn(|q| &rows[(s0 + q) * w..(s0 + q + 1) * w]);
+            let line = &mut fine.r[j * w..(j + 1) * w];
+            for i in 0..w {
+                line[i] = wt[0] * r[0][i] + wt[1] * r[1][i] + wt[2] * r[2][i] + wt[3] * r[3][i];
+            }
+            scatter_interior(out, he, line, |x| x);
+        }
+    }
+}
+
+/// Writes the interior entries (`1..nx`) of a natural-order row `src` into the split-layout
+/// row `out` (even half first), through `f`.
+#[inline(always)]
+fn scatter_interior(out: &mut [f64], he: usize, src: &[f64], f: impl Fn(f64) -> f64) {
+    let nx = src.len() - 1;
+    let (even, odd) = out.split_at_mut(he);
+    for m in 1..he {
+        if 2 * m < nx {
+            even[m] = f(src[2 * m]);
+        }
+    }
+    for (m, x) in odd.iter_mut().enumerate() {
+        if 2 * m + 1 < nx {
+            *x = f(src[2 * m + 1]);
         }
     }
 }
