@@ -213,27 +213,62 @@ fn main() {
         });
 
         // (a) warm starts from the solution of a nearby design: pivot film 1 % and 0.1 %
-        // thinner (a design step, and a slider moved by a small step).
+        // thinner (a design step, and a slider moved by a small step). `reset` first, so that
+        // the solver has nothing but the given start.
+        let near = |h: f64| {
+            let mut near = solver(n, tilting(), false);
+            near.assemble(&state(h), &vec![0.02; n * n]).unwrap();
+            near.solve_assembled(Start::Cold).unwrap();
+            near.pressure().to_vec()
+        };
         for (label, h) in [
             ("(a) multigrid, warm (1 % film change)", 29.7e-6),
             ("(a) multigrid, warm (0.1 % film change)", 29.97e-6),
         ] {
-            let mut near = solver(n, tilting(), false);
-            near.assemble(&state(h), &vec![0.02; n * n]).unwrap();
-            near.solve_assembled(Start::Cold).unwrap();
-            let start_p = near.pressure().to_vec();
+            let start_p = near(h);
             let mut cycles = 0;
             let t = time(
                 || {
+                    s.reset();
                     s.set_initial_pressure(&start_p);
                     cycles = s.solve_assembled(Start::Warm).unwrap().cycles;
                 },
                 budget,
             );
+            assert!(rel_residual(&lvl, s.pressure(), &b, &mut r) <= TOL);
             push(label, format!("{cycles}"), t);
             g.bench_function(BenchmarkId::new(label, n), |bch| {
                 bch.iter(|| {
+                    s.reset();
                     s.set_initial_pressure(&start_p);
+                    s.solve_assembled(Start::Warm).unwrap()
+                })
+            });
+        }
+        // A slider moved in equal steps: the solutions of the two previous positions (film
+        // 1 % and 2 %, or 0.1 % and 0.2 %, thinner) are known, as they are while dragging.
+        for (label, h1, h2) in [
+            ("(a) multigrid, slider steps of 1 %", 29.7e-6, 29.4e-6),
+            ("(a) multigrid, slider steps of 0.1 %", 29.97e-6, 29.94e-6),
+        ] {
+            let (p1, p2) = (near(h1), near(h2));
+            let mut cycles = 0;
+            let t = time(
+                || {
+                    s.reset();
+                    s.set_initial_pressure(&p2);
+                    s.set_initial_pressure(&p1);
+                    cycles = s.solve_assembled(Start::Warm).unwrap().cycles;
+                },
+                budget,
+            );
+            assert!(rel_residual(&lvl, s.pressure(), &b, &mut r) <= TOL);
+            push(label, format!("{cycles}"), t);
+            g.bench_function(BenchmarkId::new(label, n), |bch| {
+                bch.iter(|| {
+                    s.reset();
+                    s.set_initial_pressure(&p2);
+                    s.set_initial_pressure(&p1);
                     s.solve_assembled(Start::Warm).unwrap()
                 })
             });

@@ -187,6 +187,7 @@ impl ReynoldsSolver {
     /// Forgets the previous pressure so that the next warm start is cold.
     pub fn reset(&mut self) {
         self.has_solution = false;
+        self.mg.forget();
     }
 
     /// Assembles the operator for `state` and viscosity `mu` (Pa·s at the finest nodes)

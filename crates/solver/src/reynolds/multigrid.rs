@@ -303,6 +303,13 @@ pub struct Multigrid {
     pub cycle: CycleSettings,
     /// Whether the unconstrained levels are smoothed along lines (decided at assembly).
     use_lines: bool,
+    /// The solution before the current one (finest level, split layout), for warm starts.
+    previous: Vec<f64>,
+    previous_valid: bool,
+    /// Whether the finest level's `u` holds a solution (or a given start).
+    current_valid: bool,
+    /// Scratch copy of the start of a solve.
+    spare: Vec<f64>,
     /// Smallest ratio of η- to ξ-conductance over the finest level's nodes.
     coupling_ratio: f64,
 }
@@ -339,6 +346,10 @@ impl Multigrid {
             cycle: CycleSettings::default(),
             use_lines: false,
             coupling_ratio: 1.0,
+            previous: vec![0.0; n],
+            previous_valid: false,
+            current_valid: false,
+            spare: vec![0.0; n],
             levels,
         }
     }
@@ -407,7 +418,19 @@ impl Multigrid {
     pub fn set_solution(&mut self, p: &[f64]) {
         self.solution.copy_from_slice(p);
         let o = &mut self.ops[0];
+        if self.current_valid {
+            self.previous.copy_from_slice(&o.u);
+            self.previous_valid = true;
+        }
         o.lay.to_split(p, &mut o.u);
+        self.current_valid = true;
+    }
+
+    /// Forgets the current and previous solutions: the next warm start has nothing to project
+    /// on but the start it is given.
+    pub fn forget(&mut self) {
+        self.current_valid = false;
+        self.previous_valid = false;
     }
 
     /// Euclidean norm of the finest right-hand side.
@@ -430,11 +453,14 @@ impl Multigrid {
             let o = &mut self.ops[0];
             o.lay.to_split(&self.rhs, &mut o.f);
         }
+        // The start (the last solution) becomes the previous solution of the next solve.
+        let start_valid = self.current_valid;
+        self.spare.copy_from_slice(&self.ops[0].u);
         if cold {
             self.ops[0].u.fill(0.0);
             self.full_multigrid(floor);
         } else {
-            self.scale_start(floor);
+            self.project_start(floor);
         }
         let mut cycles = 0;
         let outcome = loop {
@@ -453,22 +479,67 @@ impl Multigrid {
         };
         let o = &self.ops[0];
         o.lay.to_natural(&o.u, &mut self.solution);
+        if start_valid {
+            std::mem::swap(&mut self.previous, &mut self.spare);
+            self.previous_valid = true;
+        }
+        self.current_valid = outcome.converged;
         outcome
     }
 
-    /// Scales a warm start by the factor that minimises its residual, `α = b·Au / |Au|²`: the
-    /// pressure of a nearby film differs mostly by a factor (it scales as `1/h²`), which this
-    /// removes for the cost of one residual evaluation.
-    fn scale_start(&mut self, floor: Option<f64>) {
+    /// Improves a warm start `u₀` (the current solution) by the combination `α u₀ + β u₁` with
+    /// the previous solution `u₁` that minimises the residual `‖f − A(α u₀ + β u₁)‖`, for two
+    /// residual evaluations: the pressure of a nearby film differs from the last one mostly by
+    /// a factor (it scales as `1/h²`), and along a sequence of designs (a slider being moved,
+    /// the steps of an equilibrium search) the two last solutions also carry the direction of
+    /// the change, so the combination extrapolates it. Without a previous solution only the
+    /// factor is fitted, `α = f·Au₀ / |Au₀|²`.
+    fn project_start(&mut self, floor: Option<f64>) {
         let o = &mut self.ops[0];
         residual(o, false);
+        // A u₀ = f − r₀.
         let (mut fa, mut aa) = (0.0, 0.0);
         for (f, r) in o.f.iter().zip(&o.r) {
             let au = f - r;
             fa += f * au;
             aa += au * au;
         }
-        if aa > 0.0 && fa > 0.0 {
+        let mut done = false;
+        if self.previous_valid {
+            // A u₁ into tmp, in split layout (the finest level's `tmp` is as long as its nodes).
+            let au1 = &mut self.tmp;
+            let k = Kernel {
+                lay: o.lay,
+                ce: &o.ce,
+                cn: &o.cn,
+                id: &o.id,
+                d: &o.d,
+                f: &o.f,
+                mask: &[],
+                line_g: &[],
+                line_ib: &[],
+            };
+            k.residual::<false>(&self.previous, au1);
+            let (mut fb, mut bb, mut ab) = (0.0, 0.0, 0.0);
+            for ((f, r0), r1) in o.f.iter().zip(&o.r).zip(au1.iter()) {
+                let (a, b) = (f - r0, f - r1);
+                fb += f * b;
+                bb += b * b;
+                ab += a * b;
+            }
+            let det = aa * bb - ab * ab;
+            if det > 1e-12 * aa * bb {
+                let alpha = (fa * bb - fb * ab) / det;
+                let beta = (aa * fb - ab * fa) / det;
+                if alpha.is_finite() && beta.is_finite() {
+                    for (u, &p) in o.u.iter_mut().zip(&self.previous) {
+                        *u = alpha * *u + beta * p;
+                    }
+                    done = true;
+                }
+            }
+        }
+        if !done && aa > 0.0 && fa > 0.0 {
             let alpha = fa / aa;
             o.u.iter_mut().for_each(|x| *x *= alpha);
         }
@@ -1247,13 +1318,35 @@ fn restrict(fine: &Ops, r: &[f64], coarse: &mut Ops, tmp: &mut [f64]) {
             t[ic] = re[ic] + fine.wr[ic - 1] * ro[ic - 1] + fine.wl[ic] * ro[ic];
         }
     }
-    coarse.f.fill(0.0);
+    let (cw, che) = (cl.w, cl.he);
+    coarse.f[..cw].fill(0.0);
+    coarse.f[cl.ny * cw..].fill(0.0);
     for jc in 1..cl.ny {
         let j = 2 * jc;
         let (a, b) = (fine.wyr[j - 1], fine.wyl[j + 1]);
-        for ic in 1..cl.nx {
-            coarse.f[cl.pos(ic, jc)] =
-                tmp[j * wc + ic] + a * tmp[(j - 1) * wc + ic] + b * tmp[(j + 1) * wc + ic];
+        let (t0, t1, t2) = (
+            &tmp[(j - 1) * wc..j * wc],
+            &tmp[j * wc..(j + 1) * wc],
+            &tmp[(j + 1) * wc..(j + 2) * wc],
+        );
+        let out = &mut coarse.f[jc * cw..(jc + 1) * cw];
+        let (even, odd) = out.split_at_mut(che);
+        // Even coarse columns ic = 2m, odd ic = 2m + 1; the edge columns stay zero.
+        for (m, x) in even.iter_mut().enumerate() {
+            let ic = 2 * m;
+            *x = if ic == 0 || ic == cl.nx {
+                0.0
+            } else {
+                t1[ic] + a * t0[ic] + b * t2[ic]
+            };
+        }
+        for (m, x) in odd.iter_mut().enumerate() {
+            let ic = 2 * m + 1;
+            *x = if ic == cl.nx {
+                0.0
+            } else {
+                t1[ic] + a * t0[ic] + b * t2[ic]
+            };
         }
     }
 }
@@ -1280,12 +1373,7 @@ fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) 
     // Coarse rows in natural column order: crow(J)[I], width cnx + 1.
     let cw = cnx + 1;
     let (row_buf, line) = row_buf.split_at_mut((cny + 1) * cw);
-    for jc in 0..=cny {
-        let out = &mut row_buf[jc * cw..(jc + 1) * cw];
-        for (ic, v) in out.iter_mut().enumerate() {
-            *v = uc[cl.pos(ic, jc)];
-        }
-    }
+    cl.to_natural(uc, &mut row_buf[..cl.len()]);
     for j in 1..fl.ny {
         let row = j * w;
         // Interpolate the coarse row(s) onto this fine row: even and odd fine columns.
