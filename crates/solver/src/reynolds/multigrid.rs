@@ -212,11 +212,16 @@ impl Ops {
         }
     }
 
-    fn load(&mut self, level: &Level) {
+    /// Copies the level's operator into split layout; with `lines`, also factorises the
+    /// tridiagonal systems of the line smoother.
+    fn load(&mut self, level: &Level, lines: bool) {
         self.lay.to_split(&level.ce, &mut self.ce);
         self.lay.to_split(&level.cn, &mut self.cn);
         self.lay.to_split(&level.inv_diag, &mut self.id);
         self.lay.to_split(&level.diag, &mut self.d);
+        if !lines {
+            return;
+        }
         // Thomas factorisation of every column's tridiagonal system
         // `d_j u_j − c_n(j) u_{j+1} − c_n(j − 1) u_{j−1}`, all columns at once, row by row.
         let lay = self.lay;
@@ -380,16 +385,18 @@ impl Multigrid {
     /// Returns the smallest face film on the finest level, m.
     pub fn assemble(&mut self, state: &crate::film::FilmState) -> f64 {
         let mut hmin = f64::INFINITY;
-        for (i, (l, o)) in self.levels.iter_mut().zip(&mut self.ops).enumerate() {
+        for (i, l) in self.levels.iter_mut().enumerate() {
             let h = l.assemble(state);
-            o.load(l);
             if i == 0 {
                 hmin = h;
             }
         }
-        self.coarse.factor(self.levels.last().unwrap());
         self.coupling_ratio = weakest_eta_coupling(&self.levels[0]);
         self.use_lines = self.cycle.lines && self.coupling_ratio >= LINE_THRESHOLD;
+        for (l, o) in self.levels.iter().zip(&mut self.ops) {
+            o.load(l, self.use_lines);
+        }
+        self.coarse.factor(self.levels.last().unwrap());
         hmin
     }
 
