@@ -199,6 +199,10 @@ impl FilmResponse for IsothermalPad {
         pad::evaluate(&mut self.solver, state, &self.mu, start)
     }
 
+    fn relax_pressure_tolerance(&mut self, tol: Option<f64>) {
+        self.solver.relax_tolerance(tol);
+    }
+
     fn scales_inverse_square(&self) -> bool {
         self.isoviscous
     }

@@ -79,6 +79,7 @@ pub struct ReynoldsSolver {
     pub settings: ReynoldsSettings,
     has_solution: bool,
     last: Option<SolveReport>,
+    relaxed: Option<f64>,
 }
 
 impl ReynoldsSolver {
@@ -118,6 +119,7 @@ impl ReynoldsSolver {
             h_node: vec![0.0; n],
             settings,
             has_solution: false,
+            relaxed: None,
             last: None,
         }
     }
@@ -184,6 +186,22 @@ impl ReynoldsSolver {
         self.has_solution = true;
     }
 
+    /// Loosens the relative-residual tolerance of the following solves to `tol` (never below
+    /// the settings' tolerance), or restores it with `None`. For the intermediate iterates of
+    /// an outer iteration (an equilibrium search far from its answer), whose pressures need not
+    /// be exact.
+    pub fn relax_tolerance(&mut self, tol: Option<f64>) {
+        self.relaxed = tol;
+    }
+
+    /// The relative-residual tolerance the next solve uses.
+    pub fn tolerance(&self) -> f64 {
+        match self.relaxed {
+            Some(t) if t.is_finite() => self.settings.tolerance.max(t),
+            _ => self.settings.tolerance,
+        }
+    }
+
     /// Forgets the previous pressure so that the next warm start is cold.
     pub fn reset(&mut self) {
         self.has_solution = false;
@@ -246,12 +264,9 @@ impl ReynoldsSolver {
             self.last = Some(rep);
             return Ok(rep);
         }
-        let out = self.mg.solve(
-            floor,
-            self.settings.tolerance,
-            self.settings.max_cycles,
-            cold,
-        );
+        let out = self
+            .mg
+            .solve(floor, self.tolerance(), self.settings.max_cycles, cold);
         if !out.converged {
             self.has_solution = false;
             return Err(SolverError::NotConverged {

@@ -136,31 +136,47 @@ impl Level {
         let w = nx + 1;
         self.basis_e.fill(state, &mut self.he);
         self.basis_n.fill(state, &mut self.hn);
+        // Face conductances h³/(12 μ̄) · g with μ̄ the mean of the two nodes' viscosities,
+        // row by row in branch-free loops.
+        for j in 0..=ny {
+            let row = j * w;
+            let mu = &self.mu[row..row + w];
+            let he = &self.he[row..row + nx];
+            let ge = &self.ge[row..row + nx];
+            let ce = &mut self.ce[row..row + w];
+            for i in 0..nx {
+                let h = he[i];
+                ce[i] = h * h * h * ge[i] / (6.0 * (mu[i] + mu[i + 1]));
+            }
+            ce[nx] = 0.0;
+            if j < ny {
+                let mu_n = &self.mu[row + w..row + 2 * w];
+                let hn = &self.hn[row..row + w];
+                let gn = &self.gn[row..row + w];
+                let cn = &mut self.cn[row..row + w];
+                for i in 0..w {
+                    let h = hn[i];
+                    cn[i] = h * h * h * gn[i] / (6.0 * (mu[i] + mu_n[i]));
+                }
+            } else {
+                self.cn[row..row + w].fill(0.0);
+            }
+        }
         let mut hmin = f64::INFINITY;
         for j in 0..=ny {
-            for i in 0..=nx {
-                let k = j * w + i;
-                self.ce[k] = if i < nx {
-                    let h = self.he[k];
-                    hmin = hmin.min(h);
-                    let mu = 0.5 * (self.mu[k] + self.mu[k + 1]);
-                    h * h * h / (12.0 * mu) * self.ge[k]
-                } else {
-                    0.0
-                };
-                self.cn[k] = if j < ny {
-                    let h = self.hn[k];
-                    hmin = hmin.min(h);
-                    let mu = 0.5 * (self.mu[k] + self.mu[k + w]);
-                    h * h * h / (12.0 * mu) * self.gn[k]
-                } else {
-                    0.0
-                };
+            let row = j * w;
+            for &h in &self.he[row..row + nx] {
+                hmin = if h < hmin { h } else { hmin };
+            }
+            if j < ny {
+                for &h in &self.hn[row..row + w] {
+                    hmin = if h < hmin { h } else { hmin };
+                }
             }
         }
         for j in 1..ny {
-            for i in 1..nx {
-                let k = j * w + i;
+            let row = j * w;
+            for k in row + 1..row + nx {
                 let d = self.ce[k] + self.ce[k - 1] + self.cn[k] + self.cn[k - w];
                 self.diag[k] = d;
                 self.inv_diag[k] = 1.0 / d;

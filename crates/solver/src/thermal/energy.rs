@@ -168,6 +168,7 @@ impl EnergySolver {
         // both ways) is solved exactly in each column as a tridiagonal system, with the
         // neighbouring columns' current temperatures; one pass is exact unless oil flows
         // backwards along the motion somewhere, which further passes take care of.
+        let backflow = (0..=ny).any(|j| e[j * w..j * w + nx].iter().any(|&q| q < 0.0));
         let mut sweeps = 0;
         for sweep in 0..50 {
             sweeps = sweep + 1;
@@ -231,7 +232,9 @@ impl EnergySolver {
                     next = tn;
                 }
             }
-            if change < 1e-9 {
+            // Without backflow the columns only read upstream temperatures, which were final
+            // when read: the pass was exact.
+            if !backflow || change < 1e-9 {
                 break;
             }
         }

@@ -480,6 +480,10 @@ impl FilmResponse for FieldPad {
         self.omega = 0.5;
     }
 
+    fn relax_pressure_tolerance(&mut self, tol: Option<f64>) {
+        self.solver.relax_tolerance(tol);
+    }
+
     fn scales_inverse_square(&self) -> bool {
         false
     }
@@ -575,6 +579,10 @@ impl FilmResponse for BulkPad {
         let i = self.pad.respond(state, start)?;
         self.last = Some(i);
         Ok(i)
+    }
+
+    fn relax_pressure_tolerance(&mut self, tol: Option<f64>) {
+        self.pad.relax_pressure_tolerance(tol);
     }
 
     fn update(&mut self) -> Result<f64, SolverError> {
