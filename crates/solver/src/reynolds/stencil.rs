@@ -65,6 +65,12 @@ pub struct Level {
     pub hn: Vec<f64>,
     /// Dynamic viscosity at the nodes, Pa·s.
     pub mu: Vec<f64>,
+    /// The viscosity the face factors below were computed for, Pa·s.
+    mu_seen: Vec<f64>,
+    /// East-face factor `g_e / (12 μ̄_e)`, 1/(Pa·s) (`μ̄` the mean of the two nodes).
+    fe: Vec<f64>,
+    /// North-face factor `g_n / (12 μ̄_n)`, 1/(Pa·s).
+    fnorth: Vec<f64>,
 }
 
 impl Level {
@@ -125,6 +131,9 @@ impl Level {
             he: vec![0.0; n],
             hn: vec![0.0; n],
             mu: vec![0.0; n],
+            mu_seen: vec![f64::NAN; n],
+            fe: vec![0.0; n],
+            fnorth: vec![0.0; n],
             grid,
         }
     }
@@ -136,31 +145,36 @@ impl Level {
         let w = nx + 1;
         self.basis_e.fill(state, &mut self.he);
         self.basis_n.fill(state, &mut self.hn);
-        // Face conductances h³/(12 μ̄) · g with μ̄ the mean of the two nodes' viscosities,
-        // row by row in branch-free loops.
-        for j in 0..=ny {
-            let row = j * w;
-            let mu = &self.mu[row..row + w];
-            let he = &self.he[row..row + nx];
-            let ge = &self.ge[row..row + nx];
-            let ce = &mut self.ce[row..row + w];
-            for i in 0..nx {
-                let h = he[i];
-                ce[i] = h * h * h * ge[i] / (6.0 * (mu[i] + mu[i + 1]));
-            }
-            ce[nx] = 0.0;
-            if j < ny {
-                let mu_n = &self.mu[row + w..row + 2 * w];
-                let hn = &self.hn[row..row + w];
-                let gn = &self.gn[row..row + w];
-                let cn = &mut self.cn[row..row + w];
-                for i in 0..w {
-                    let h = hn[i];
-                    cn[i] = h * h * h * gn[i] / (6.0 * (mu[i] + mu_n[i]));
+        // The viscosity changes less often than the film: the face factors g/(12 μ̄), with μ̄
+        // the mean of the two nodes' viscosities, are renewed only when it does.
+        if self.mu != self.mu_seen {
+            for j in 0..=ny {
+                let row = j * w;
+                let mu = &self.mu[row..row + w];
+                let (ge, fe) = (&self.ge[row..row + nx], &mut self.fe[row..row + w]);
+                for i in 0..nx {
+                    fe[i] = ge[i] / (6.0 * (mu[i] + mu[i + 1]));
                 }
-            } else {
-                self.cn[row..row + w].fill(0.0);
+                fe[nx] = 0.0;
+                let fnorth = &mut self.fnorth[row..row + w];
+                if j < ny {
+                    let mu_n = &self.mu[row + w..row + 2 * w];
+                    let gn = &self.gn[row..row + w];
+                    for i in 0..w {
+                        fnorth[i] = gn[i] / (6.0 * (mu[i] + mu_n[i]));
+                    }
+                } else {
+                    fnorth.fill(0.0);
+                }
             }
+            self.mu_seen.copy_from_slice(&self.mu);
+        }
+        // Face conductances G = h³ g/(12 μ̄), m³/(Pa·s).
+        for ((c, &h), &f) in self.ce.iter_mut().zip(&self.he).zip(&self.fe) {
+            *c = h * h * h * f;
+        }
+        for ((c, &h), &f) in self.cn.iter_mut().zip(&self.hn).zip(&self.fnorth) {
+            *c = h * h * h * f;
         }
         let mut hmin = f64::INFINITY;
         for j in 0..=ny {
