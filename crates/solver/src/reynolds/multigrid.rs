@@ -61,6 +61,64 @@ fn weakest_eta_coupling(level: &Level) -> f64 {
     m
 }
 
+/// Earlier solutions kept for warm starts.
+const HISTORY: usize = 2;
+
+/// Solves the leading `n × n` block of the normal equations `G c = b` (lower triangle of `G`
+/// filled) by Cholesky after scaling `G` to a unit diagonal; `None` if the block is not
+/// numerically positive definite (nearly dependent directions) or any entry is not finite.
+fn solve_gram(g: &[[f64; 3]; 3], b: &[f64; 3], n: usize) -> Option<[f64; 3]> {
+    let mut s = [0.0; 3];
+    for i in 0..n {
+        if !(g[i][i] > 0.0) || !g[i][i].is_finite() {
+            return None;
+        }
+        s[i] = 1.0 / g[i][i].sqrt();
+    }
+    // Scaled matrix and Cholesky factor L (lower).
+    let mut l = [[0.0; 3]; 3];
+    for i in 0..n {
+        for j in 0..=i {
+            let mut v = g[i][j] * s[i] * s[j];
+            for q in 0..j {
+                v -= l[i][q] * l[j][q];
+            }
+            if i == j {
+                // A pivot this small means the direction adds under 1e-6 of new information.
+                if v <= 1e-12 {
+                    return None;
+                }
+                l[i][i] = v.sqrt();
+            } else {
+                l[i][j] = v / l[j][j];
+            }
+        }
+    }
+    let mut y = [0.0; 3];
+    for i in 0..n {
+        let mut v = b[i] * s[i];
+        for q in 0..i {
+            v -= l[i][q] * y[q];
+        }
+        y[i] = v / l[i][i];
+    }
+    let mut c = [0.0; 3];
+    for i in (0..n).rev() {
+        let mut v = y[i];
+        for q in i + 1..n {
+            v -= l[q][i] * c[q];
+        }
+        c[i] = v / l[i][i];
+    }
+    for i in 0..n {
+        c[i] *= s[i];
+        if !c[i].is_finite() {
+            return None;
+        }
+    }
+    Some(c)
+}
+
 /// Even/odd-column split layout of the nodes of one level.
 #[derive(Clone, Copy, Debug)]
 struct Layout {
@@ -309,8 +367,12 @@ pub struct Multigrid {
     /// Whether the unconstrained levels are smoothed along lines (decided at assembly).
     use_lines: bool,
     /// The solution before the current one (finest level, split layout), for warm starts.
-    previous: Vec<f64>,
-    previous_valid: bool,
+    /// The solutions before the current one, newest first (finest level, split layout), for
+    /// warm starts; the first `history_len` are valid.
+    history: [Vec<f64>; HISTORY],
+    history_len: usize,
+    /// Residuals `f − A x` of the history, scratch of [`Multigrid::project_start`].
+    history_residual: [Vec<f64>; HISTORY],
     /// Whether the finest level's `u` holds a solution (or a given start).
     current_valid: bool,
     /// Scratch copy of the start of a solve.
@@ -351,8 +413,9 @@ impl Multigrid {
             cycle: CycleSettings::default(),
             use_lines: false,
             coupling_ratio: 1.0,
-            previous: vec![0.0; n],
-            previous_valid: false,
+            history: std::array::from_fn(|_| vec![0.0; n]),
+            history_len: 0,
+            history_residual: std::array::from_fn(|_| vec![0.0; n]),
             current_valid: false,
             spare: vec![0.0; n],
             levels,
@@ -426,8 +489,9 @@ impl Multigrid {
         self.solution.copy_from_slice(p);
         let o = &mut self.ops[0];
         if self.current_valid {
-            self.previous.copy_from_slice(&o.u);
-            self.previous_valid = true;
+            self.history.rotate_right(1);
+            self.history[0].copy_from_slice(&o.u);
+            self.history_len = (self.history_len + 1).min(HISTORY);
         }
         o.lay.to_split(p, &mut o.u);
         self.current_valid = true;
@@ -437,7 +501,7 @@ impl Multigrid {
     /// on but the start it is given.
     pub fn forget(&mut self) {
         self.current_valid = false;
-        self.previous_valid = false;
+        self.history_len = 0;
     }
 
     /// Euclidean norm of the finest right-hand side.
@@ -472,8 +536,11 @@ impl Multigrid {
         let mut cycles = 0;
         let outcome = loop {
             // Pre-smoothing belongs to the cycle, but the residual after it is that of a valid
-            // iterate and comes out of the same pass: check convergence there.
-            let rel = self.smooth_residual_top(0, floor) / bnorm;
+            // iterate and comes out of the same pass: check convergence there. A projected warm
+            // start is checked as it is (it may already be converged); its first cycle then
+            // runs without pre-smoothing.
+            let smooth_first = cycles > 0 || cold;
+            let rel = self.smooth_residual_top(0, floor, smooth_first) / bnorm;
             if rel <= tolerance || cycles >= max_cycles || !rel.is_finite() {
                 break Outcome {
                     cycles,
@@ -487,68 +554,102 @@ impl Multigrid {
         let o = &self.ops[0];
         o.lay.to_natural(&o.u, &mut self.solution);
         if start_valid {
-            std::mem::swap(&mut self.previous, &mut self.spare);
-            self.previous_valid = true;
+            self.history.rotate_right(1);
+            std::mem::swap(&mut self.history[0], &mut self.spare);
+            self.history_len = (self.history_len + 1).min(HISTORY);
         }
         self.current_valid = outcome.converged;
         outcome
     }
 
-    /// Improves a warm start `u₀` (the current solution) by the combination `α u₀ + β u₁` with
-    /// the previous solution `u₁` that minimises the residual `‖f − A(α u₀ + β u₁)‖`, for two
-    /// residual evaluations: the pressure of a nearby film differs from the last one mostly by
-    /// a factor (it scales as `1/h²`), and along a sequence of designs (a slider being moved,
-    /// the steps of an equilibrium search) the two last solutions also carry the direction of
-    /// the change, so the combination extrapolates it. Without a previous solution only the
-    /// factor is fitted, `α = f·Au₀ / |Au₀|²`.
+    /// Improves a warm start `u₀` (the current solution) by the combination of `u₀` and the
+    /// solutions before it (`u₁`, `u₂`, newest first) that minimises the residual
+    /// `‖f − A x‖`, for one residual evaluation per solution: the pressure of a nearby film
+    /// differs from the last one mostly by a factor (it scales as `1/h²`), and along a
+    /// sequence of designs (a slider being moved, the steps of an equilibrium search) the
+    /// earlier solutions also carry the direction and the curvature of the change, so the
+    /// combination extrapolates it (to second order with two earlier solutions). The basis is
+    /// `u₀, u₀ − u₁, u₁ − u₂`, whose images are the differences of the residuals `y = f − A u`
+    /// (accurate to round-off of `f`, not of `A u`); the 3 × 3 normal equations are solved
+    /// after scaling to a unit diagonal, dropping the last directions if they are degenerate.
     fn project_start(&mut self, floor: Option<f64>) {
+        let m = 1 + self.history_len;
         let o = &mut self.ops[0];
         residual(o, false);
-        // A u₀ = f − r₀.
-        let (mut fa, mut aa) = (0.0, 0.0);
-        for (f, r) in o.f.iter().zip(&o.r) {
-            let au = f - r;
-            fa += f * au;
-            aa += au * au;
+        let k = Kernel {
+            lay: o.lay,
+            ce: &o.ce,
+            cn: &o.cn,
+            id: &o.id,
+            d: &o.d,
+            f: &o.f,
+            mask: &[],
+            line_g: &[],
+            line_ib: &[],
+        };
+        for q in 0..self.history_len {
+            k.residual::<false>(&self.history[q], &mut self.history_residual[q]);
         }
-        let mut done = false;
-        if self.previous_valid {
-            // A u₁ into tmp, in split layout (the finest level's `tmp` is as long as its nodes).
-            let au1 = &mut self.tmp;
-            let k = Kernel {
-                lay: o.lay,
-                ce: &o.ce,
-                cn: &o.cn,
-                id: &o.id,
-                d: &o.d,
-                f: &o.f,
-                mask: &[],
-                line_g: &[],
-                line_ib: &[],
-            };
-            k.residual::<false>(&self.previous, au1);
-            let (mut fb, mut bb, mut ab) = (0.0, 0.0, 0.0);
-            for ((f, r0), r1) in o.f.iter().zip(&o.r).zip(au1.iter()) {
-                let (a, b) = (f - r0, f - r1);
-                fb += f * b;
-                bb += b * b;
-                ab += a * b;
+        // Images a₀ = f − y₀, a₁ = y₁ − y₀, a₂ = y₂ − y₁; Gram matrix and right side.
+        let (y1, y2) = (&self.history_residual[0], &self.history_residual[1]);
+        // Nine sums in one pass, four independent lanes each so that the loop vectorises.
+        let mut acc = [[0.0f64; 4]; 9];
+        let n = o.f.len();
+        let lanes = n / 4 * 4;
+        let mut add = |acc: &mut [[f64; 4]; 9], q: usize, idx: usize| {
+            let f = o.f[idx];
+            let y0 = o.r[idx];
+            let a0 = f - y0;
+            let a1 = if m > 1 { y1[idx] - y0 } else { 0.0 };
+            let a2 = if m > 2 { y2[idx] - y1[idx] } else { 0.0 };
+            acc[0][q] += a0 * f;
+            acc[1][q] += a1 * f;
+            acc[2][q] += a2 * f;
+            acc[3][q] += a0 * a0;
+            acc[4][q] += a1 * a0;
+            acc[5][q] += a1 * a1;
+            acc[6][q] += a2 * a0;
+            acc[7][q] += a2 * a1;
+            acc[8][q] += a2 * a2;
+        };
+        for base in (0..lanes).step_by(4) {
+            for q in 0..4 {
+                add(&mut acc, q, base + q);
             }
-            let det = aa * bb - ab * ab;
-            if det > 1e-12 * aa * bb {
-                let alpha = (fa * bb - fb * ab) / det;
-                let beta = (aa * fb - ab * fa) / det;
-                if alpha.is_finite() && beta.is_finite() {
-                    for (u, &p) in o.u.iter_mut().zip(&self.previous) {
-                        *u = alpha * *u + beta * p;
+        }
+        for idx in lanes..n {
+            add(&mut acc, 0, idx);
+        }
+        let t = |i: usize| acc[i].iter().sum::<f64>();
+        let b = [t(0), t(1), t(2)];
+        let g = [[t(3), 0.0, 0.0], [t(4), t(5), 0.0], [t(6), t(7), t(8)]];
+        let mut c = [0.0; 3];
+        let mut used = m;
+        while used > 0 {
+            if let Some(sol) = solve_gram(&g, &b, used) {
+                c = sol;
+                break;
+            }
+            used -= 1;
+        }
+        if used == 0 {
+            // Nothing to fit (a zero start): keep it.
+        } else {
+            // x = c₀ u₀ + c₁ (u₀ − u₁) + c₂ (u₁ − u₂).
+            let (h1, h2) = (&self.history[0], &self.history[1]);
+            match used {
+                1 => o.u.iter_mut().for_each(|x| *x *= c[0]),
+                2 => {
+                    for (x, &p1) in o.u.iter_mut().zip(h1) {
+                        *x = (c[0] + c[1]) * *x - c[1] * p1;
                     }
-                    done = true;
+                }
+                _ => {
+                    for ((x, &p1), &p2) in o.u.iter_mut().zip(h1).zip(h2) {
+                        *x = (c[0] + c[1]) * *x + (c[2] - c[1]) * p1 - c[2] * p2;
+                    }
                 }
             }
-        }
-        if !done && aa > 0.0 && fa > 0.0 {
-            let alpha = fa / aa;
-            o.u.iter_mut().for_each(|x| *x *= alpha);
         }
         if let Some(fl) = floor {
             o.u.iter_mut().for_each(|x| *x = x.max(fl));
@@ -557,11 +658,11 @@ impl Multigrid {
 
     /// Pre-smooths the top level `l` (projected if `floor`) and leaves the residual of the
     /// smoothed iterate in its `r`, with the exclusion of cavitated nodes if projected;
-    /// returns the norm of the (projected) residual.
-    fn smooth_residual_top(&mut self, l: usize, floor: Option<f64>) -> f64 {
+    /// returns the norm of the (projected) residual. Without `smooth_first` only the residual.
+    fn smooth_residual_top(&mut self, l: usize, floor: Option<f64>, smooth_first: bool) -> f64 {
         let c = self.cycle;
         let o = &mut self.ops[l];
-        let sum = if c.pre_sweeps == 0 {
+        let sum = if c.pre_sweeps == 0 || !smooth_first {
             residual(o, false)
         } else {
             smooth(o, c.pre_sweeps, floor, c.omega, false, true, self.use_lines)
@@ -619,7 +720,7 @@ impl Multigrid {
             if let Some(fl) = floor {
                 self.ops[l].u.iter_mut().for_each(|x| *x = x.max(fl));
             }
-            self.smooth_residual_top(l, floor);
+            self.smooth_residual_top(l, floor, true);
             self.cycle_from_residual(l, floor);
         }
     }
