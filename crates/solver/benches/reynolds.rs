@@ -257,7 +257,7 @@ fn main() {
                 .rev()
                 .map(|q| near(30e-6 * (1.0 - step * q as f64)))
                 .collect();
-            let mut load = |s: &mut ReynoldsSolver| {
+            let load = |s: &mut ReynoldsSolver| {
                 s.reset();
                 for pq in &p {
                     s.set_initial_pressure(pq);

@@ -67,10 +67,11 @@ const HISTORY: usize = 2;
 /// Solves the leading `n × n` block of the normal equations `G c = b` (lower triangle of `G`
 /// filled) by Cholesky after scaling `G` to a unit diagonal; `None` if the block is not
 /// numerically positive definite (nearly dependent directions) or any entry is not finite.
+#[allow(clippy::needless_range_loop)]
 fn solve_gram(g: &[[f64; 3]; 3], b: &[f64; 3], n: usize) -> Option<[f64; 3]> {
     let mut s = [0.0; 3];
     for i in 0..n {
-        if !(g[i][i] > 0.0) || !g[i][i].is_finite() {
+        if g[i][i].is_nan() || g[i][i] <= 0.0 || !g[i][i].is_finite() {
             return None;
         }
         s[i] = 1.0 / g[i][i].sqrt();
@@ -596,7 +597,7 @@ impl Multigrid {
         let mut acc = [[0.0f64; 4]; 9];
         let n = o.f.len();
         let lanes = n / 4 * 4;
-        let mut add = |acc: &mut [[f64; 4]; 9], q: usize, idx: usize| {
+        let add = |acc: &mut [[f64; 4]; 9], q: usize, idx: usize| {
             let f = o.f[idx];
             let y0 = o.r[idx];
             let a0 = f - y0;
