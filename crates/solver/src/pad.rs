@@ -118,44 +118,59 @@ pub fn integrate(solver: &ReynoldsSolver, mu: &[f64], solve: SolveReport) -> Pad
     let cav_on = solver.settings.cavitation;
     let node_area = solver.node_area();
     let node_xy = solver.node_position();
+    let w = g.nx + 1;
     for j in 0..=g.ny {
         let t = o.t_at(g.eta[j]);
         let u = frame.surface_speed(t);
         let dt = g.eta_extent(j) * t_span;
-        for i in 0..=g.nx {
-            let k = g.idx(i, j);
-            let da = node_area[k];
-            area += da;
-            let xy = node_xy[k];
-            cx += p[k] * xy[0] * da;
-            cy += p[k] * xy[1] * da;
-            if p[k] > peak.0 {
-                peak = (p[k], (g.xi[i], g.eta[j]));
+        let row = j * w..(j + 1) * w;
+        let (pr, hr, mr, ar, xyr) = (
+            &p[row.clone()],
+            &h[row.clone()],
+            &mu[row.clone()],
+            &node_area[row.clone()],
+            &node_xy[row.clone()],
+        );
+        // Row sums; the speed and radius are constant along a row and multiply afterwards.
+        let (mut a_sum, mut px, mut py, mut shear) = (0.0, 0.0, 0.0, 0.0);
+        for i in 0..w {
+            let da = ar[i];
+            a_sum += da;
+            px += pr[i] * xyr[i][0] * da;
+            py += pr[i] * xyr[i][1] * da;
+            // Couette shear μU/h on the control volume of the node (U applied below).
+            shear += mr[i] / hr[i] * da;
+        }
+        // Pressure-gradient shear (h/2) ∂p/∂x integrated over the strip between this node and
+        // the next along the motion: (h_e Δt / 2)(p_{i+1} − p_i).
+        let he = &lvl.he[j * w..j * w + g.nx];
+        let mut grad = 0.0;
+        for i in 0..g.nx {
+            grad += he[i] * (pr[i + 1] - pr[i]);
+        }
+        let grad = 0.5 * dt * grad;
+        area += a_sum;
+        cx += px;
+        cy += py;
+        friction_force += u * shear + grad;
+        power += u * u * shear + grad * u;
+        if is_sector {
+            friction_torque += (u * shear + grad) * t;
+        }
+        for i in 0..w {
+            if pr[i] > peak.0 {
+                peak = (pr[i], (g.xi[i], g.eta[j]));
             }
-            if h[k] < hmin.0 {
-                hmin = (h[k], (g.xi[i], g.eta[j]));
+            if hr[i] < hmin.0 {
+                hmin = (hr[i], (g.xi[i], g.eta[j]));
             }
-            hmax = hmax.max(h[k]);
-            // Couette shear μU/h on the control volume of the node.
-            let tau = mu[k] * u / h[k];
-            friction_force += tau * da;
-            power += tau * u * da;
-            if is_sector {
-                friction_torque += tau * t * da;
-            }
-            // Pressure-gradient shear (h/2) ∂p/∂x integrated over the strip between this node
-            // and the next along the motion: (h_e Δt / 2)(p_{i+1} − p_i).
-            if i < g.nx {
-                let f = 0.5 * lvl.he[k] * dt * (p[k + 1] - p[k]);
-                friction_force += f;
-                power += f * u;
-                if is_sector {
-                    friction_torque += f * t;
+            hmax = hmax.max(hr[i]);
+        }
+        if cav_on && j > 0 && j < g.ny {
+            for i in 1..g.nx {
+                if pr[i] <= floor {
+                    cav_area += ar[i];
                 }
-            }
-            let interior = i > 0 && i < g.nx && j > 0 && j < g.ny;
-            if cav_on && interior && p[k] <= floor {
-                cav_area += da;
             }
         }
     }
