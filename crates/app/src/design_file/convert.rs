@@ -411,6 +411,7 @@ impl NumericsSpec {
             "a relaxation factor",
         )?;
         r.cycle.gamma = self.coarse_grid_visits;
+        r.cycle.lines = self.line_smoothing;
         let e = &mut n.equilibrium;
         e.min_film = um_to_m(positive(
             "numerics.smallest_film_um",
@@ -463,6 +464,7 @@ impl NumericsSpec {
             smoothing_sweeps_after: n.reynolds.cycle.post_sweeps,
             relaxation_factor: tidy(n.reynolds.cycle.omega),
             coarse_grid_visits: n.reynolds.cycle.gamma,
+            line_smoothing: n.reynolds.cycle.lines,
         }
     }
 }

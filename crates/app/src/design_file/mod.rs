@@ -307,6 +307,9 @@ pub struct NumericsSpec {
     pub relaxation_factor: f64,
     /// Multigrid: coarse-grid visits per level (1: V-cycle, 2: W-cycle).
     pub coarse_grid_visits: usize,
+    /// Multigrid: smooth along lines across the motion where the cells couple more strongly
+    /// across the motion than along it (narrow or long pads).
+    pub line_smoothing: bool,
 }
 
 impl Default for NumericsSpec {

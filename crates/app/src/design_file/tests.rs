@@ -43,6 +43,7 @@ pub(super) const FULL: &str = r#"(
         smoothing_sweeps_after: 3,
         relaxation_factor: 1.1,
         coarse_grid_visits: 2,
+        line_smoothing: false,
     ),
 )"#;
 
