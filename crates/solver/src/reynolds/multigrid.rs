@@ -507,7 +507,7 @@ impl Multigrid {
 
     /// Euclidean norm of the finest right-hand side.
     pub fn rhs_norm(&self) -> f64 {
-        self.rhs.iter().map(|x| x * x).sum::<f64>().sqrt()
+        sum_sq(&self.rhs).sqrt()
     }
 
     /// Solves to `tolerance` (relative residual) within `max_cycles`, from zero by full
@@ -527,7 +527,9 @@ impl Multigrid {
         }
         // The start (the last solution) becomes the previous solution of the next solve.
         let start_valid = self.current_valid;
-        self.spare.copy_from_slice(&self.ops[0].u);
+        if start_valid {
+            self.spare.copy_from_slice(&self.ops[0].u);
+        }
         if cold {
             self.ops[0].u.fill(0.0);
             self.full_multigrid(floor);
