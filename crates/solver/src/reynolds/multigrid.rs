@@ -42,23 +42,22 @@ const MIN_COARSE_INTERVALS: usize = 8;
 /// ξ-coupling dominates somewhere, which η-lines do not smooth better than points.
 const LINE_THRESHOLD: f64 = 0.8;
 
-/// Smallest ratio over the interior nodes of `level` of the η-conductances (north plus south)
-/// to the ξ-conductances (east plus west).
-fn weakest_eta_coupling(level: &Level) -> f64 {
+/// Whether every interior node of `level` couples at least `ratio` times as strongly along η
+/// (north plus south conductance) as along ξ (east plus west). Stops at the first node that
+/// does not, which on a sector pad is usually in the first rows (the inner radius).
+fn eta_coupling_at_least(level: &Level, ratio: f64) -> bool {
     let (nx, ny) = (level.grid.nx, level.grid.ny);
     let w = nx + 1;
-    let mut m = f64::INFINITY;
     for j in 1..ny {
-        for i in 1..nx {
-            let k = j * w + i;
-            let eta = level.cn[k] + level.cn[k - w];
-            let xi = level.ce[k] + level.ce[k - 1];
-            if xi > 0.0 {
-                m = m.min(eta / xi);
-            }
+        let row = j * w;
+        let ok = (row + 1..row + nx).all(|k| {
+            level.cn[k] + level.cn[k - w] >= ratio * (level.ce[k] + level.ce[k - 1])
+        });
+        if !ok {
+            return false;
         }
     }
-    m
+    true
 }
 
 /// Earlier solutions kept for warm starts.
@@ -378,8 +377,6 @@ pub struct Multigrid {
     current_valid: bool,
     /// Scratch copy of the start of a solve.
     spare: Vec<f64>,
-    /// Smallest ratio of η- to ξ-conductance over the finest level's nodes.
-    coupling_ratio: f64,
 }
 
 impl Multigrid {
@@ -413,7 +410,6 @@ impl Multigrid {
             solution: vec![0.0; n],
             cycle: CycleSettings::default(),
             use_lines: false,
-            coupling_ratio: 1.0,
             history: std::array::from_fn(|_| vec![0.0; n]),
             history_len: 0,
             history_residual: std::array::from_fn(|_| vec![0.0; n]),
@@ -455,8 +451,8 @@ impl Multigrid {
                 hmin = h;
             }
         }
-        self.coupling_ratio = weakest_eta_coupling(&self.levels[0]);
-        self.use_lines = self.cycle.lines && self.coupling_ratio >= LINE_THRESHOLD;
+        self.use_lines =
+            self.cycle.lines && eta_coupling_at_least(&self.levels[0], LINE_THRESHOLD);
         for (l, o) in self.levels.iter().zip(&mut self.ops) {
             o.load(l, self.use_lines);
         }
