@@ -176,24 +176,40 @@ impl Level {
         for ((c, &h), &f) in self.cn.iter_mut().zip(&self.hn).zip(&self.fnorth) {
             *c = h * h * h * f;
         }
-        let mut hmin = f64::INFINITY;
-        for j in 0..=ny {
-            let row = j * w;
-            for &h in &self.he[row..row + nx] {
-                hmin = if h < hmin { h } else { hmin };
-            }
-            if j < ny {
-                for &h in &self.hn[row..row + w] {
-                    hmin = if h < hmin { h } else { hmin };
+        // Smallest face film (the faces past the last column and row are not faces), in four
+        // lanes so the comparison chain vectorises.
+        let mut lanes = [f64::INFINITY; 4];
+        let mut fold = |v: &[f64]| {
+            let mut c = v.chunks_exact(4);
+            for q in &mut c {
+                for (l, &h) in lanes.iter_mut().zip(q) {
+                    *l = if h < *l { h } else { *l };
                 }
             }
+            for &h in c.remainder() {
+                lanes[0] = if h < lanes[0] { h } else { lanes[0] };
+            }
+        };
+        for j in 0..=ny {
+            let row = j * w;
+            fold(&self.he[row..row + nx]);
+            if j < ny {
+                fold(&self.hn[row..row + w]);
+            }
         }
+        let hmin = lanes.iter().fold(f64::INFINITY, |m, &l| if l < m { l } else { m });
+        // Diagonal Σ G of the interior nodes and its reciprocal.
         for j in 1..ny {
             let row = j * w;
-            for k in row + 1..row + nx {
-                let d = self.ce[k] + self.ce[k - 1] + self.cn[k] + self.cn[k - w];
-                self.diag[k] = d;
-                self.inv_diag[k] = 1.0 / d;
+            let ce = &self.ce[row..row + w];
+            let (cn_s, cn_n) = (&self.cn[row - w..row], &self.cn[row..row + w]);
+            let diag = &mut self.diag[row + 1..row + nx];
+            let inv = &mut self.inv_diag[row + 1..row + nx];
+            for m in 0..nx - 1 {
+                let i = m + 1;
+                let d = ce[i] + ce[i - 1] + cn_n[i] + cn_s[i];
+                diag[m] = d;
+                inv[m] = 1.0 / d;
             }
         }
         hmin
