@@ -671,6 +671,20 @@ impl Multigrid {
             Some(fl) => {
                 // Only interior nodes can cavitate; the edges hold the ambient pressure.
                 let lay = o.lay;
+                // Usually no interior node touches the floor (converging films): then the
+                // projected residual is the plain one and nothing is excluded (the mask is
+                // only read while the exclusion is active).
+                let touching = (1..lay.ny).any(|j| {
+                    [(true, 0), (false, lay.he)].iter().any(|&(part_even, off)| {
+                        let (m0, m1, _, _) = half_row(&lay, part_even);
+                        let a = j * lay.w + off + m0;
+                        o.u[a..a + m1.saturating_sub(m0)].iter().any(|&x| x <= fl)
+                    })
+                });
+                if !touching {
+                    o.excl.active = false;
+                    return sum.sqrt();
+                }
                 let mut s = 0.0;
                 let mut any = false;
                 o.excl.mask.fill(false);
