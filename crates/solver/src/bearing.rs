@@ -203,6 +203,19 @@ impl FilmResponse for IsothermalPad {
         self.solver.relax_tolerance(tol);
     }
 
+    fn respond_forces(
+        &mut self,
+        state: &FilmState,
+        start: Start,
+    ) -> Result<crate::equilibrium::Forces, SolverError> {
+        pad::evaluate_forces(&mut self.solver, state, &self.mu, start)
+    }
+
+    fn complete(&mut self) -> Option<PadIntegrals> {
+        let rep = self.solver.last_report()?;
+        Some(pad::integrate(&self.solver, &self.mu, rep))
+    }
+
     fn scales_inverse_square(&self) -> bool {
         self.isoviscous
     }

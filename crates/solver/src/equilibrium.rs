@@ -90,6 +90,17 @@ pub trait FilmResponse {
     /// Loosens the pressure solver's tolerance to `tol` for the following responses, or
     /// restores it with `None` (see [`crate::reynolds::ReynoldsSolver::relax_tolerance`]).
     fn relax_pressure_tolerance(&mut self, _tol: Option<f64>) {}
+    /// Solves the pad at `state` like [`FilmResponse::respond`] but returns only the load and
+    /// moments, for the iterations that need nothing else (cheaper where the model can skip
+    /// the other integrals).
+    fn respond_forces(&mut self, state: &FilmState, start: Start) -> Result<Forces, SolverError> {
+        self.respond(state, start).map(|i| Forces::of(&i))
+    }
+    /// All integrals of the last solution without solving again, if the model can give them
+    /// (after [`FilmResponse::respond_forces`]).
+    fn complete(&mut self) -> Option<PadIntegrals> {
+        None
+    }
     /// True if the pressure at a fixed film shape scales exactly as `1/h_ref²` (rigid,
     /// isoviscous, no crown).
     fn scales_inverse_square(&self) -> bool;
@@ -97,6 +108,44 @@ pub trait FilmResponse {
     fn film_model(&self) -> &FilmModel;
     /// Smallest film over the grid nodes for a state, m.
     fn min_film(&self, state: &FilmState) -> f64;
+}
+
+/// The load and moments of a pressure field: what the equilibrium iterations need.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Forces {
+    /// Load, N.
+    pub load: f64,
+    /// Moment about the pivot's axis across the motion, N·m.
+    pub moment_pitch: f64,
+    /// Moment about the pivot's axis along the motion, N·m.
+    pub moment_roll: f64,
+}
+
+impl Forces {
+    /// The forces part of full integrals.
+    pub fn of(i: &PadIntegrals) -> Self {
+        Forces {
+            load: i.load,
+            moment_pitch: i.moment_pitch,
+            moment_roll: i.moment_roll,
+        }
+    }
+}
+
+/// What the memory of [`Counted`] holds for its last state.
+#[derive(Clone, Copy, Debug)]
+enum Answer {
+    Full(PadIntegrals),
+    Forces(Forces),
+}
+
+impl Answer {
+    fn forces(&self) -> Forces {
+        match self {
+            Answer::Full(i) => Forces::of(i),
+            Answer::Forces(f) => *f,
+        }
+    }
 }
 
 /// A pad in equilibrium.
@@ -125,7 +174,7 @@ struct Counted<'a, R: FilmResponse> {
     r: &'a mut R,
     solves: usize,
     /// The last state, its answer and the pressure tolerance it was solved to (0: full).
-    last: Option<(FilmState, PadIntegrals, f64)>,
+    last: Option<(FilmState, Answer, f64)>,
     /// The loosened pressure tolerance in force (0: full).
     relaxed: f64,
 }
@@ -148,18 +197,42 @@ impl<'a, R: FilmResponse> Counted<'a, R> {
         }
     }
 
+    /// All integrals at `s`.
     fn eval(&mut self, s: &FilmState, start: Start) -> Result<PadIntegrals, SolverError> {
-        if let Some((ls, li, lt)) = self.last
+        if let Some((ls, a, lt)) = self.last
             && ls == *s
             && lt <= self.relaxed
         {
-            return Ok(li);
+            match a {
+                Answer::Full(i) => return Ok(i),
+                Answer::Forces(_) => {
+                    if let Some(i) = self.r.complete() {
+                        self.last = Some((ls, Answer::Full(i), lt));
+                        return Ok(i);
+                    }
+                }
+            }
         }
         self.solves += 1;
         self.last = None;
         let i = self.r.respond(s, start)?;
-        self.last = Some((*s, i, self.relaxed));
+        self.last = Some((*s, Answer::Full(i), self.relaxed));
         Ok(i)
+    }
+
+    /// Load and moments at `s` only.
+    fn forces(&mut self, s: &FilmState, start: Start) -> Result<Forces, SolverError> {
+        if let Some((ls, a, lt)) = self.last
+            && ls == *s
+            && lt <= self.relaxed
+        {
+            return Ok(a.forces());
+        }
+        self.solves += 1;
+        self.last = None;
+        let f = self.r.respond_forces(s, start)?;
+        self.last = Some((*s, Answer::Forces(f), self.relaxed));
+        Ok(f)
     }
 
     /// Renews the response's internal state (which changes every answer).
@@ -233,14 +306,14 @@ fn fixed_stiffness<R: FilmResponse>(
     _load: f64,
 ) -> Result<f64, SolverError> {
     let dh = 0.005 * c.r.min_film(state);
-    let up = c.eval(
+    let up = c.forces(
         &FilmState {
             reference: state.reference + dh,
             ..*state
         },
         Start::Warm,
     )?;
-    let dn = c.eval(
+    let dn = c.forces(
         &FilmState {
             reference: state.reference - dh,
             ..*state
@@ -310,7 +383,7 @@ fn fixed_frozen<R: FilmResponse>(
     let mut bracket = None;
     if let Some(g) = guess.filter(|&g| g > 1.5 * h_lo) {
         let f_of = |c: &mut Counted<R>, h: f64| -> Result<f64, SolverError> {
-            let w = c.eval(&at(h), Start::Warm)?.load;
+            let w = c.forces(&at(h), Start::Warm)?.load;
             Ok(if w > 0.0 {
                 (w / load).ln()
             } else {
@@ -407,7 +480,7 @@ fn fixed_bracket<R: FilmResponse>(
     h_lo: f64,
 ) -> Result<(f64, f64, f64, f64), SolverError> {
     // The smallest allowed film bounds the capacity.
-    let w_lo = c.eval(&at(h_lo), Start::Cold)?.load;
+    let w_lo = c.forces(&at(h_lo), Start::Cold)?.load;
     if w_lo <= 0.0 {
         return Err(SolverError::NoLoadCapacity(no_wedge_message(
             c.r.film_model().support(),
@@ -426,7 +499,7 @@ fn fixed_bracket<R: FilmResponse>(
     let mut fb = fa;
     for _ in 0..40 {
         b += std::f64::consts::LN_2;
-        let w = c.eval(&at(b.exp()), Start::Warm)?.load;
+        let w = c.forces(&at(b.exp()), Start::Warm)?.load;
         if w <= 0.0 {
             fb = f64::NEG_INFINITY;
             break;
@@ -577,7 +650,7 @@ pub fn tilting_pad<R: FilmResponse>(
         x.a *= 0.8;
     }
     // Scale the first guess to the load (exact for a rigid isoviscous pad).
-    let first = c.eval(&frame.state(&x), Start::Cold)?;
+    let first = c.forces(&frame.state(&x), Start::Cold)?;
     if first.load > 0.0 {
         x.ln_h += 0.5 * (first.load / load).ln();
     }
@@ -593,7 +666,7 @@ pub fn tilting_pad<R: FilmResponse>(
         // The start shape is only a start: its pressures need no more than a rough solve.
         c.relax(MAX_RELAXED_PRESSURE_TOL);
         for _ in 0..8 {
-            let i = c.eval(&frame.state(&x), Start::Warm)?;
+            let i = c.forces(&frame.state(&x), Start::Warm)?;
             if i.load > 0.0 {
                 x.ln_h += 0.5 * (i.load / load).ln();
             }
@@ -727,7 +800,7 @@ fn tilting_stiffness<R: FilmResponse>(
     load: f64,
 ) -> Result<f64, SolverError> {
     let vars: &[usize] = if frame.line { &[0, 1] } else { &[0, 1, 2] };
-    let i = c.eval(&frame.state(x), Start::Warm)?;
+    let i = c.forces(&frame.state(x), Start::Warm)?;
     let f = tilt_residual(&i, frame, load).unwrap_or_default();
     let no = || SolverError::NotConverged {
         what: "film stiffness at the equilibrium",
@@ -744,7 +817,7 @@ fn tilting_stiffness<R: FilmResponse>(
 }
 
 /// Residual vector of the tilting equilibrium: `[ln(W/W_t), M_pitch/(W L), M_roll/(W B)]`.
-fn tilt_residual(i: &PadIntegrals, frame: &TiltFrame, load: f64) -> Option<[f64; 3]> {
+fn tilt_residual(i: &Forces, frame: &TiltFrame, load: f64) -> Option<[f64; 3]> {
     if i.load.is_nan() || i.load <= 0.0 {
         return None;
     }
@@ -798,7 +871,7 @@ fn fd_jacobian<R: FilmResponse>(
         };
         let mut xp = *x;
         shape_set(&mut xp, v, x0 + step);
-        let fp = match c.eval(&frame.state(&xp), Start::Warm) {
+        let fp = match c.forces(&frame.state(&xp), Start::Warm) {
             Ok(i) => tilt_residual(&i, frame, load),
             Err(SolverError::FilmClosed { .. }) => None,
             Err(e) => return Err(e),
@@ -826,7 +899,7 @@ fn balance_roll<R: FilmResponse>(
         if c.r.min_film(&st) < FILM_RATIO_MIN * st.reference {
             return Ok(None);
         }
-        match c.eval(&st, Start::Warm) {
+        match c.forces(&st, Start::Warm) {
             Ok(i) => Ok(tilt_residual(&i, frame, load)),
             Err(SolverError::FilmClosed { .. }) => Ok(None),
             Err(e) => Err(e),
@@ -977,7 +1050,7 @@ fn newton_tilt<R: FilmResponse>(
     let get = shape_get;
     let set = shape_set;
     let eval = |c: &mut Counted<R>, s: &Shape| -> Result<Option<[f64; 3]>, SolverError> {
-        match c.eval(&frame.state(s), Start::Warm) {
+        match c.forces(&frame.state(s), Start::Warm) {
             Ok(i) => Ok(tilt_residual(&i, frame, load)),
             Err(SolverError::FilmClosed { .. }) => Ok(None),
             Err(e) => Err(e),

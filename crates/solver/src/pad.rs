@@ -67,6 +67,22 @@ pub fn evaluate(
     Ok(integrate(solver, mu, rep))
 }
 
+/// Solves the pressure of `state` and returns only its load and moments.
+pub fn evaluate_forces(
+    solver: &mut ReynoldsSolver,
+    state: &FilmState,
+    mu: &[f64],
+    start: Start,
+) -> Result<crate::equilibrium::Forces, SolverError> {
+    solver.solve(state, mu, start)?;
+    let (load, moment_pitch, moment_roll) = resultants(solver);
+    Ok(crate::equilibrium::Forces {
+        load,
+        moment_pitch,
+        moment_roll,
+    })
+}
+
 /// Pressure resultant and moments only (cheap): `(load, moment_pitch, moment_roll)`.
 pub fn resultants(solver: &ReynoldsSolver) -> (f64, f64, f64) {
     let p = solver.pressure();

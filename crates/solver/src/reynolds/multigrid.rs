@@ -50,9 +50,8 @@ fn eta_coupling_at_least(level: &Level, ratio: f64) -> bool {
     let w = nx + 1;
     for j in 1..ny {
         let row = j * w;
-        let ok = (row + 1..row + nx).all(|k| {
-            level.cn[k] + level.cn[k - w] >= ratio * (level.ce[k] + level.ce[k - 1])
-        });
+        let ok = (row + 1..row + nx)
+            .all(|k| level.cn[k] + level.cn[k - w] >= ratio * (level.ce[k] + level.ce[k - 1]));
         if !ok {
             return false;
         }
@@ -451,8 +450,7 @@ impl Multigrid {
                 hmin = h;
             }
         }
-        self.use_lines =
-            self.cycle.lines && eta_coupling_at_least(&self.levels[0], LINE_THRESHOLD);
+        self.use_lines = self.cycle.lines && eta_coupling_at_least(&self.levels[0], LINE_THRESHOLD);
         for (l, o) in self.levels.iter().zip(&mut self.ops) {
             o.load(l, self.use_lines);
         }
@@ -675,11 +673,13 @@ impl Multigrid {
                 // projected residual is the plain one and nothing is excluded (the mask is
                 // only read while the exclusion is active).
                 let touching = (1..lay.ny).any(|j| {
-                    [(true, 0), (false, lay.he)].iter().any(|&(part_even, off)| {
-                        let (m0, m1, _, _) = half_row(&lay, part_even);
-                        let a = j * lay.w + off + m0;
-                        o.u[a..a + m1.saturating_sub(m0)].iter().any(|&x| x <= fl)
-                    })
+                    [(true, 0), (false, lay.he)]
+                        .iter()
+                        .any(|&(part_even, off)| {
+                            let (m0, m1, _, _) = half_row(&lay, part_even);
+                            let a = j * lay.w + off + m0;
+                            o.u[a..a + m1.saturating_sub(m0)].iter().any(|&x| x <= fl)
+                        })
                 });
                 if !touching {
                     o.excl.active = false;

@@ -197,7 +197,9 @@ impl Level {
                 fold(&self.hn[row..row + w]);
             }
         }
-        let hmin = lanes.iter().fold(f64::INFINITY, |m, &l| if l < m { l } else { m });
+        let hmin = lanes
+            .iter()
+            .fold(f64::INFINITY, |m, &l| if l < m { l } else { m });
         // Diagonal Σ G of the interior nodes and its reciprocal.
         for j in 1..ny {
             let row = j * w;

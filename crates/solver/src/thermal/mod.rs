@@ -484,6 +484,23 @@ impl FilmResponse for FieldPad {
         self.solver.relax_tolerance(tol);
     }
 
+    fn respond_forces(
+        &mut self,
+        state: &FilmState,
+        start: Start,
+    ) -> Result<crate::equilibrium::Forces, SolverError> {
+        let st = FilmState {
+            crown: state.crown + self.state.thermal_crown,
+            ..*state
+        };
+        pad::evaluate_forces(&mut self.solver, &st, &self.mu, start)
+    }
+
+    fn complete(&mut self) -> Option<PadIntegrals> {
+        let rep = self.solver.last_report()?;
+        Some(pad::integrate(&self.solver, &self.mu, rep))
+    }
+
     fn scales_inverse_square(&self) -> bool {
         false
     }
