@@ -59,6 +59,17 @@ fn eta_coupling_at_least(level: &Level, ratio: f64) -> bool {
     true
 }
 
+/// What the convergence check of the top level does before measuring the residual.
+#[derive(Clone, Copy, Debug, PartialEq)]
+enum TopPass {
+    /// Pre-smooth, producing the residual in the same pass.
+    Smooth,
+    /// Compute the residual of the current iterate.
+    Residual,
+    /// The residual in `r` is already that of the current iterate.
+    Known,
+}
+
 /// Earlier solutions kept for warm starts.
 const HISTORY: usize = 2;
 
@@ -524,11 +535,12 @@ impl Multigrid {
         if start_valid {
             self.spare.copy_from_slice(&self.ops[0].u);
         }
+        let mut residual_known = false;
         if cold {
             self.ops[0].u.fill(0.0);
             self.full_multigrid(floor);
         } else {
-            self.project_start(floor);
+            residual_known = self.project_start(floor);
         }
         let mut cycles = 0;
         let outcome = loop {
@@ -536,8 +548,14 @@ impl Multigrid {
             // iterate and comes out of the same pass: check convergence there. A projected warm
             // start is checked as it is (it may already be converged); its first cycle then
             // runs without pre-smoothing.
-            let smooth_first = cycles > 0 || cold;
-            let rel = self.smooth_residual_top(0, floor, smooth_first) / bnorm;
+            let pass = if cycles > 0 || cold {
+                TopPass::Smooth
+            } else if residual_known {
+                TopPass::Known
+            } else {
+                TopPass::Residual
+            };
+            let rel = self.smooth_residual_top(0, floor, pass) / bnorm;
             if rel <= tolerance || cycles >= max_cycles || !rel.is_finite() {
                 break Outcome {
                     cycles,
@@ -569,7 +587,11 @@ impl Multigrid {
     /// `u₀, u₀ − u₁, u₁ − u₂`, whose images are the differences of the residuals `y = f − A u`
     /// (accurate to round-off of `f`, not of `A u`); the 3 × 3 normal equations are solved
     /// after scaling to a unit diagonal, dropping the last directions if they are degenerate.
-    fn project_start(&mut self, floor: Option<f64>) {
+    ///
+    /// The residual of the combination is the same combination of the residuals, so it is
+    /// left in `r` as well; returns whether it is valid (not if the cavitation floor clipped
+    /// the combination).
+    fn project_start(&mut self, floor: Option<f64>) -> bool {
         let m = 1 + self.history_len;
         let o = &mut self.ops[0];
         residual(o, false);
@@ -632,37 +654,60 @@ impl Multigrid {
         if used == 0 {
             // Nothing to fit (a zero start): keep it.
         } else {
-            // x = c₀ u₀ + c₁ (u₀ − u₁) + c₂ (u₁ − u₂).
+            // x = c₀ u₀ + c₁ (u₀ − u₁) + c₂ (u₁ − u₂), and its residual
+            // f − c₀ a₀ − c₁ a₁ − c₂ a₂ = (1 − c₀) f + (c₀ + c₁) y₀ + (c₂ − c₁) y₁ − c₂ y₂.
             let (h1, h2) = (&self.history[0], &self.history[1]);
+            let (y1, y2) = (&self.history_residual[0], &self.history_residual[1]);
+            let (c0, c1, c2) = (c[0], c[1], c[2]);
             match used {
-                1 => o.u.iter_mut().for_each(|x| *x *= c[0]),
+                1 => {
+                    o.u.iter_mut().for_each(|x| *x *= c0);
+                    for (r, &f) in o.r.iter_mut().zip(&o.f) {
+                        *r = (1.0 - c0) * f + c0 * *r;
+                    }
+                }
                 2 => {
                     for (x, &p1) in o.u.iter_mut().zip(h1) {
-                        *x = (c[0] + c[1]) * *x - c[1] * p1;
+                        *x = (c0 + c1) * *x - c1 * p1;
+                    }
+                    for ((r, &f), &q1) in o.r.iter_mut().zip(&o.f).zip(y1) {
+                        *r = (1.0 - c0) * f + (c0 + c1) * *r - c1 * q1;
                     }
                 }
                 _ => {
                     for ((x, &p1), &p2) in o.u.iter_mut().zip(h1).zip(h2) {
-                        *x = (c[0] + c[1]) * *x + (c[2] - c[1]) * p1 - c[2] * p2;
+                        *x = (c0 + c1) * *x + (c2 - c1) * p1 - c2 * p2;
+                    }
+                    for (((r, &f), &q1), &q2) in o.r.iter_mut().zip(&o.f).zip(y1).zip(y2) {
+                        *r = (1.0 - c0) * f + (c0 + c1) * *r + (c2 - c1) * q1 - c2 * q2;
                     }
                 }
             }
         }
+        let mut clipped = false;
         if let Some(fl) = floor {
-            o.u.iter_mut().for_each(|x| *x = x.max(fl));
+            for x in o.u.iter_mut() {
+                if *x < fl {
+                    *x = fl;
+                    clipped = true;
+                }
+            }
         }
+        !clipped
     }
 
     /// Pre-smooths the top level `l` (projected if `floor`) and leaves the residual of the
     /// smoothed iterate in its `r`, with the exclusion of cavitated nodes if projected;
-    /// returns the norm of the (projected) residual. Without `smooth_first` only the residual.
-    fn smooth_residual_top(&mut self, l: usize, floor: Option<f64>, smooth_first: bool) -> f64 {
+    /// returns the norm of the (projected) residual. See [`TopPass`] for the other passes.
+    fn smooth_residual_top(&mut self, l: usize, floor: Option<f64>, pass: TopPass) -> f64 {
         let c = self.cycle;
         let o = &mut self.ops[l];
-        let sum = if c.pre_sweeps == 0 || !smooth_first {
-            residual(o, false)
-        } else {
-            smooth(o, c.pre_sweeps, floor, c.omega, false, true, self.use_lines)
+        let sum = match pass {
+            TopPass::Known => sum_sq(&o.r),
+            TopPass::Smooth if c.pre_sweeps > 0 => {
+                smooth(o, c.pre_sweeps, floor, c.omega, false, true, self.use_lines)
+            }
+            _ => residual(o, false),
         };
         match floor {
             None => sum.sqrt(),
@@ -733,7 +778,7 @@ impl Multigrid {
             if let Some(fl) = floor {
                 self.ops[l].u.iter_mut().for_each(|x| *x = x.max(fl));
             }
-            self.smooth_residual_top(l, floor, true);
+            self.smooth_residual_top(l, floor, TopPass::Smooth);
             self.cycle_from_residual(l, floor);
         }
     }
