@@ -61,8 +61,28 @@ pub struct EnergySolver {
     pub area: Vec<f64>,
     /// Film temperature at each node, K.
     pub temperature: Vec<f64>,
-    /// Column system of the tridiagonal solve: diagonal, lower, upper, right-hand side.
-    col: Vec<f64>,
+    /// The temperature-independent coefficients of the upwind system, see [`ColumnSystem`].
+    sys: ColumnSystem,
+}
+
+/// The upwind energy system of every node, split into what does not depend on the
+/// temperatures (all of it, as the flows are fixed) and factorised column by column:
+/// `d T_j − lo T_{j−1} − up T_{j+1} = base + cw T_west + ce T_east`, in W/K and W.
+#[derive(Clone, Debug, Default)]
+struct ColumnSystem {
+    /// Coupling to the node below / above in the column (south, north inflow), W/K.
+    lo: Vec<f64>,
+    up: Vec<f64>,
+    /// Fixed part of the right-hand side (dissipation, edge inflow, surface exchange), W.
+    base: Vec<f64>,
+    /// Coupling to the upwind nodes of the neighbouring columns, W/K.
+    cw: Vec<f64>,
+    ce: Vec<f64>,
+    /// Thomas factors: forward multiplier `lo_j / d'_{j−1}` and inverse pivot `1/d'_j`.
+    m: Vec<f64>,
+    inv: Vec<f64>,
+    /// Eliminated right-hand side of one column.
+    y: Vec<f64>,
 }
 
 /// Energy totals of one solution, W.
@@ -112,7 +132,7 @@ impl EnergySolver {
         if self.temperature.len() != n {
             self.temperature = vec![0.0; n];
         }
-        self.col.resize(4 * (lvl.grid.ny + 1), 0.0);
+        self.sys.y.resize(lvl.grid.ny + 1, 0.0);
         let w = g.nx + 1;
         for j in 0..=g.ny {
             let t = o.t_at(g.eta[j]);
@@ -163,70 +183,107 @@ impl EnergySolver {
         let h_tot = surf.runner_coefficient + surf.pad_coefficient;
         let h_ref = surf.runner_coefficient * surf.runner_temperature
             + surf.pad_coefficient * surf.bath_temperature;
+        // The coefficients do not depend on the temperatures: build and factorise them once,
+        // row by row (the columns' eliminations are independent), so that the sweep below is
+        // a chain of multiply-adds without divisions.
+        let n = g.len();
+        let sys = &mut self.sys;
+        for v in [
+            &mut sys.lo,
+            &mut sys.up,
+            &mut sys.base,
+            &mut sys.cw,
+            &mut sys.ce,
+            &mut sys.m,
+            &mut sys.inv,
+        ] {
+            v.resize(n, 0.0);
+        }
+        let mut backflow = false;
+        for j in 0..=ny {
+            for i in 0..=nx {
+                let k = j * w + i;
+                let mut inflow = 0.0;
+                let mut carried = 0.0;
+                let (mut cw, mut ce) = (0.0, 0.0);
+                // West face (or the leading edge) and east face: temperatures of the
+                // neighbouring columns.
+                if i > 0 && e[k - 1] > 0.0 {
+                    inflow += e[k - 1];
+                    cw = rho_c * e[k - 1];
+                }
+                if i < nx && e[k] < 0.0 {
+                    inflow -= e[k];
+                    ce = -rho_c * e[k];
+                    backflow = true;
+                }
+                if i == 0 || i == nx || j == 0 || j == ny {
+                    let q = -self.faces.edge_outflow(g, i, j);
+                    if q > 0.0 {
+                        inflow += q;
+                        carried += q * if i == 0 { t_inlet } else { t_side };
+                    }
+                }
+                // South and north faces: unknowns of this column.
+                let from_south = if j > 0 { nth[k - w].max(0.0) } else { 0.0 };
+                let from_north = if j < ny { (-nth[k]).max(0.0) } else { 0.0 };
+                let a = self.area[k];
+                let den = rho_c * (inflow + from_south + from_north) + a * h_tot;
+                let d = if den > 0.0 {
+                    sys.lo[k] = rho_c * from_south;
+                    sys.up[k] = rho_c * from_north;
+                    sys.base[k] = self.dissipation[k] + rho_c * carried + a * h_ref;
+                    sys.cw[k] = cw;
+                    sys.ce[k] = ce;
+                    den
+                } else {
+                    // No oil enters and no heat leaves: take the upstream value.
+                    sys.lo[k] = 0.0;
+                    sys.up[k] = 0.0;
+                    sys.base[k] = if i > 0 { 0.0 } else { t_inlet };
+                    sys.cw[k] = if i > 0 { 1.0 } else { 0.0 };
+                    sys.ce[k] = 0.0;
+                    1.0
+                };
+                // Thomas elimination along the column: d'_j = d_j − (lo_j/d'_{j−1}) up_{j−1}.
+                let dp = if j > 0 {
+                    let m = sys.lo[k] * sys.inv[k - w];
+                    sys.m[k] = m;
+                    d - m * sys.up[k - w]
+                } else {
+                    sys.m[k] = 0.0;
+                    d
+                };
+                sys.inv[k] = 1.0 / dp;
+            }
+        }
         let t = &mut self.temperature;
         // Column by column along the motion: the coupling across the motion (side flows run
-        // both ways) is solved exactly in each column as a tridiagonal system, with the
-        // neighbouring columns' current temperatures; one pass is exact unless oil flows
-        // backwards along the motion somewhere, which further passes take care of.
-        let backflow = (0..=ny).any(|j| e[j * w..j * w + nx].iter().any(|&q| q < 0.0));
+        // both ways) is solved exactly in each column with the neighbouring columns' current
+        // temperatures; one pass is exact unless oil flows backwards along the motion
+        // somewhere, which further passes take care of.
         let mut sweeps = 0;
         for sweep in 0..50 {
             sweeps = sweep + 1;
             let mut change: f64 = 0.0;
             for i in 0..=nx {
+                let mut prev = 0.0;
                 for j in 0..=ny {
                     let k = j * w + i;
-                    let mut inflow = 0.0;
-                    let mut carried = 0.0;
-                    let mut enter = |q: f64, tu: f64| {
-                        if q > 0.0 {
-                            inflow += q;
-                            carried += q * tu;
-                        }
-                    };
-                    // West face (or the leading edge) and east face: known temperatures.
+                    let mut r = sys.base[k];
                     if i > 0 {
-                        enter(e[k - 1], t[k - 1]);
+                        r += sys.cw[k] * t[k - 1];
                     }
                     if i < nx {
-                        enter(-e[k], t[k + 1]);
+                        r += sys.ce[k] * t[k + 1];
                     }
-                    if i == 0 || i == nx || j == 0 || j == ny {
-                        let out = self.faces.edge_outflow(g, i, j);
-                        let t_edge = if i == 0 { t_inlet } else { t_side };
-                        enter(-out, t_edge);
-                    }
-                    // South and north faces: unknowns of this column.
-                    let from_south = if j > 0 { nth[k - w].max(0.0) } else { 0.0 };
-                    let from_north = if j < ny { (-nth[k]).max(0.0) } else { 0.0 };
-                    let a = self.area[k];
-                    let den = rho_c * (inflow + from_south + from_north) + a * h_tot;
-                    let (dj, lo, up, rj) = if den > 0.0 {
-                        (
-                            den,
-                            rho_c * from_south,
-                            rho_c * from_north,
-                            self.dissipation[k] + rho_c * carried + a * h_ref,
-                        )
-                    } else {
-                        // No oil enters and no heat leaves: take the upstream value.
-                        (1.0, 0.0, 0.0, if i > 0 { t[k - 1] } else { t_inlet })
-                    };
-                    self.col[4 * j] = dj;
-                    self.col[4 * j + 1] = lo;
-                    self.col[4 * j + 2] = up;
-                    self.col[4 * j + 3] = rj;
-                }
-                // Thomas algorithm on  d_j T_j − lo_j T_{j−1} − up_j T_{j+1} = r_j.
-                for j in 1..=ny {
-                    let m = self.col[4 * j + 1] / self.col[4 * (j - 1)];
-                    self.col[4 * j] -= m * self.col[4 * (j - 1) + 2];
-                    self.col[4 * j + 3] += m * self.col[4 * (j - 1) + 3];
+                    prev = r + sys.m[k] * prev;
+                    sys.y[j] = prev;
                 }
                 let mut next = 0.0;
                 for j in (0..=ny).rev() {
-                    let tn = (self.col[4 * j + 3] + self.col[4 * j + 2] * next) / self.col[4 * j];
                     let k = j * w + i;
+                    let tn = (sys.y[j] + sys.up[k] * next) * sys.inv[k];
                     change = change.max((tn - t[k]).abs());
                     t[k] = tn;
                     next = tn;
