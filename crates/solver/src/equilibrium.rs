@@ -1071,6 +1071,7 @@ fn newton_tilt<R: FilmResponse>(
     // A cached Jacobian is tried first; a fresh one is computed when it fails to make fast
     // progress.
     let mut want_fresh = !matches!(cache.jac, Some((_, m)) if m == n);
+    let mut slow_before = false;
     for it in 0..settings.max_iterations {
         *iterations += 1;
         if converged(&f) {
@@ -1131,6 +1132,7 @@ fn newton_tilt<R: FilmResponse>(
             }
         }
         let f0 = norm(&f);
+        let f_before = f;
         // A trial point only has to show whether the residual fell: solve its pressure to a
         // fraction of the present residual (full accuracy again near the answer).
         c.relax((PRESSURE_TOL_PER_RESIDUAL * f0).min(MAX_RELAXED_PRESSURE_TOL));
@@ -1156,8 +1158,26 @@ fn newton_tilt<R: FilmResponse>(
             lam *= 0.5;
         }
         if accepted {
-            // Keep the Jacobian while it reduces the residual at least threefold per step.
-            want_fresh = norm(&f) > f0 / 3.0;
+            // Broyden's rank-one update makes the Jacobian reproduce the step just taken
+            // (J ← J + (Δf − J Δx) Δxᵀ / |Δx|²), at no cost in solves.
+            let step: Vec<f64> = (0..n).map(|col| lam * dx[col]).collect();
+            let ss: f64 = step.iter().map(|v| v * v).sum();
+            let mut updated = jac;
+            if ss > 0.0 {
+                for (row, &w) in vars.iter().enumerate() {
+                    let js: f64 = (0..n).map(|col| jac[row][col] * step[col]).sum();
+                    let d = (f[w] - f_before[w] - js) / ss;
+                    for col in 0..n {
+                        updated[row][col] += d * step[col];
+                    }
+                }
+                cache.jac = Some((updated, n));
+            }
+            // Keep the (updated) Jacobian while it reduces the residual at least threefold per
+            // step; after two slow steps in a row, difference it afresh.
+            let slow = norm(&f) > f0 / 3.0;
+            want_fresh = slow && slow_before;
+            slow_before = slow;
             continue;
         }
         if !fresh {
