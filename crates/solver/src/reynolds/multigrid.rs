@@ -1280,8 +1280,11 @@ impl Kernel<'_> {
         sum
     }
 
-    /// Gauss–Seidel update of one half-row (`part_even`: the even columns) of row `j`; with
-    /// `RES` the residual of the updated nodes goes to `r` and `Σ r²` is returned.
+    /// Gauss–Seidel update of one half-row (`part_even`: the even columns) of row `j` of the
+    /// integrated five-point Reynolds equations `d u − Σ c u_nb = f` (pressures Pa,
+    /// conductances m³/(Pa·s), sources m³/s), over-relaxed by `omega` and clipped at `floor`
+    /// with `FLOOR`; with `RES` the residual of the updated nodes (m³/s) goes to `r` and
+    /// `Σ r²` is returned.
     #[inline(always)]
     fn update<const FLOOR: bool, const MASK: bool, const RES: bool>(
         &self,
@@ -1349,8 +1352,8 @@ impl Kernel<'_> {
         if RES { sum_sq(out) } else { 0.0 }
     }
 
-    /// Residual `r = f − A u` of one half-row of row `j` (zero on excluded nodes with `MASK`);
-    /// returns `Σ r²` over it.
+    /// Residual `r = f − A u` (m³/s) of the integrated five-point Reynolds equations on one
+    /// half-row of row `j` (zero on excluded nodes with `MASK`); returns `Σ r²` over it.
     #[inline(always)]
     fn residual_half<const MASK: bool>(
         &self,
