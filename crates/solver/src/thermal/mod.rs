@@ -602,6 +602,11 @@ impl FilmResponse for BulkPad {
         self.pad.relax_pressure_tolerance(tol);
     }
 
+    fn complete(&mut self) -> Option<PadIntegrals> {
+        // The renewal needs the flows and the power, so every response is a full one.
+        self.last
+    }
+
     fn update(&mut self) -> Result<f64, SolverError> {
         let Some(i) = self.last else {
             return Ok(f64::INFINITY);
