@@ -180,7 +180,11 @@ impl ReynoldsSolver {
     }
 
     /// Sets the pressure (Pa at the finest nodes) a following warm start begins from, e.g. the
-    /// solution of a nearby design.
+    /// solution of a nearby design. The pressure held before (a given start or the last
+    /// solution) moves into the solver's history of two earlier solutions, which a warm start
+    /// also projects on: loading the solutions of the last designs of a path oldest first, as
+    /// every solve does by itself, gives the extrapolating start. [`ReynoldsSolver::reset`]
+    /// empties the history.
     pub fn set_initial_pressure(&mut self, p: &[f64]) {
         self.mg.set_solution(p);
         self.has_solution = true;
@@ -202,7 +206,8 @@ impl ReynoldsSolver {
         }
     }
 
-    /// Forgets the previous pressure so that the next warm start is cold.
+    /// Forgets the previous pressure and the history of earlier solutions, so that the next
+    /// warm start is cold.
     pub fn reset(&mut self) {
         self.has_solution = false;
         self.mg.forget();
