@@ -280,6 +280,42 @@ impl Ops {
         }
     }
 
+    /// The read-only operator data of the level as a [`Kernel`] (with the boundary-corrected
+    /// diagonal and the exclusion mask if `corrected`), and its iterate and residual.
+    fn parts(&mut self, corrected: bool) -> (Kernel<'_>, &mut [f64], &mut [f64]) {
+        let Ops {
+            lay,
+            ce,
+            cn,
+            id,
+            d,
+            u,
+            f,
+            r,
+            excl,
+            line_g,
+            line_ib,
+            ..
+        } = self;
+        let (id, d, mask): (&[f64], &[f64], &[bool]) = if corrected {
+            (&excl.inv_diag, &excl.diag, &excl.mask)
+        } else {
+            (id, d, &[])
+        };
+        let k = Kernel {
+            lay: *lay,
+            ce,
+            cn,
+            id,
+            d,
+            f,
+            mask,
+            line_g,
+            line_ib,
+        };
+        (k, u, r)
+    }
+
     /// Copies the level's operator into split layout; with `lines`, also factorises the
     /// tridiagonal systems of the line smoother.
     fn load(&mut self, level: &Level, lines: bool) {
@@ -595,17 +631,7 @@ impl Multigrid {
         let m = 1 + self.history_len;
         let o = &mut self.ops[0];
         residual(o, false);
-        let k = Kernel {
-            lay: o.lay,
-            ce: &o.ce,
-            cn: &o.cn,
-            id: &o.id,
-            d: &o.d,
-            f: &o.f,
-            mask: &[],
-            line_g: &[],
-            line_ib: &[],
-        };
+        let (k, _, _) = o.parts(false);
         for q in 0..self.history_len {
             k.residual::<false>(&self.history[q], &mut self.history_residual[q]);
         }
@@ -1038,36 +1064,7 @@ fn smooth(
     with_residual: bool,
     lines: bool,
 ) -> f64 {
-    let Ops {
-        lay,
-        ce,
-        cn,
-        id,
-        d,
-        u,
-        f,
-        r,
-        excl,
-        line_g,
-        line_ib,
-        ..
-    } = o;
-    let (id, d, mask): (&[f64], &[f64], &[bool]) = if corrected {
-        (&excl.inv_diag, &excl.diag, &excl.mask)
-    } else {
-        (id, d, &[])
-    };
-    let k = Kernel {
-        lay: *lay,
-        ce,
-        cn,
-        id,
-        d,
-        f,
-        mask,
-        line_g,
-        line_ib,
-    };
+    let (k, u, r) = o.parts(corrected);
     if lines && floor.is_none() && !corrected {
         // Exact line solves need no over-relaxation.
         let mut sum = 0.0;
@@ -1435,34 +1432,7 @@ fn sum_sq(x: &[f64]) -> f64 {
 /// Residual of a level into its `r`; `corrected` uses the boundary-corrected diagonal of a
 /// coarse level with excluded nodes (whose entries are then zero). Returns `Σ r²`.
 fn residual(o: &mut Ops, corrected: bool) -> f64 {
-    let Ops {
-        lay,
-        ce,
-        cn,
-        id,
-        d,
-        u,
-        f,
-        r,
-        excl,
-        ..
-    } = o;
-    let (id, d, mask): (&[f64], &[f64], &[bool]) = if corrected {
-        (&excl.inv_diag, &excl.diag, &excl.mask)
-    } else {
-        (id, d, &[])
-    };
-    let k = Kernel {
-        lay: *lay,
-        ce,
-        cn,
-        id,
-        d,
-        f,
-        mask,
-        line_g: &[],
-        line_ib: &[],
-    };
+    let (k, u, r) = o.parts(corrected);
     if corrected {
         k.residual::<true>(u, r)
     } else {
