@@ -67,6 +67,12 @@ pub fn evaluate(
     Ok(integrate(solver, mu, rep))
 }
 
+/// Integrates the last solution of `solver` again, if it has one (viscosity `mu`, Pa·s).
+pub fn integrate_last(solver: &ReynoldsSolver, mu: &[f64]) -> Option<PadIntegrals> {
+    let rep = solver.last_report()?;
+    Some(integrate(solver, mu, rep))
+}
+
 /// Solves the pressure of `state` and returns only its load and moments.
 pub fn evaluate_forces(
     solver: &mut ReynoldsSolver,
