@@ -328,3 +328,66 @@ fn warm_start_from_solution_history() {
         assert!(diff <= 1e-7 * peak, "{}", diff / peak);
     }
 }
+
+/// A warm start from the solution of a design one step away (pivot film 1 % thinner, one
+/// solution known) is far from the new solution: its residual is about 1e-2 of the source.
+/// Full multigrid applied to the residual equation `A e = f − A p₀` (full multigrid and the
+/// correction scheme are textbook multigrid, e.g. Trottenberg, Oosterlee and Schüller,
+/// *Multigrid*, 2001; from memory) takes it to the tolerance in at most four cycles, where
+/// plain cycles from the start needed six (measured before the correction was added). Checked
+/// against faer's sparse Cholesky solution of the same system, to 1e-7 of the peak pressure.
+#[test]
+fn warm_start_far_away_is_corrected_by_full_multigrid() {
+    let outline = PadOutline::Sector {
+        inner_radius: 0.06,
+        outer_radius: 0.12,
+        arc: 45f64.to_radians(),
+    };
+    let support = Support::TiltingPoint {
+        offset_along: 0.6,
+        offset_across: 0.5,
+    };
+    let state = |h: f64| FilmState {
+        reference: h,
+        pitch: 3e-4,
+        roll: 5e-5,
+        ..Default::default()
+    };
+    let settings = ReynoldsSettings {
+        tolerance: 1e-8,
+        cavitation: false,
+        ..Default::default()
+    };
+    let make = || {
+        pads::solver(
+            outline,
+            RunnerSpeed::Angular(314.0),
+            support,
+            65,
+            65,
+            settings,
+        )
+    };
+    let n = make().grid().len();
+    let mu = vec![0.02; n];
+    let previous = {
+        let mut t = make();
+        t.solve(&state(29.7e-6), &mu, Start::Cold).unwrap();
+        t.pressure().to_vec()
+    };
+    let mut s = make();
+    s.set_initial_pressure(&previous);
+    let rep = s.solve(&state(30e-6), &mu, Start::Warm).unwrap();
+    eprintln!("warm start 1 % away: {} cycles", rep.cycles);
+    assert!(!rep.cold_start);
+    assert!(rep.relative_residual <= 1e-8);
+    assert!(rep.cycles <= 4, "{} cycles", rep.cycles);
+    let direct = direct_solve(&s);
+    let peak = direct.iter().fold(0.0f64, |m, x| m.max(x.abs()));
+    let diff = s
+        .pressure()
+        .iter()
+        .zip(&direct)
+        .fold(0.0f64, |m, (a, b)| m.max((a - b).abs()));
+    assert!(diff <= 1e-7 * peak, "{}", diff / peak);
+}
