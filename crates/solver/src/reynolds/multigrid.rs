@@ -305,23 +305,24 @@ impl Ops {
             line_ib,
             ..
         } = self;
-        let (id, d, mask): (&[f64], &[f64], &[bool]) = if corrected {
-            (&excl.inv_diag, &excl.diag, &excl.mask)
-        } else {
-            (id, d, &[])
-        };
-        let k = Kernel {
-            lay: *lay,
-            ce,
-            cn,
-            id,
-            d,
-            f,
-            mask,
-            line_g,
-            line_ib,
-        };
+        let k = Kernel::new(*lay, ce, cn, id, d, f, excl, line_g, line_ib, corrected);
         (k, u, r)
+    }
+
+    /// The read-only operator data of the level as a [`Kernel`], as in [`Ops::parts`].
+    fn kernel(&self, corrected: bool) -> Kernel<'_> {
+        Kernel::new(
+            self.lay,
+            &self.ce,
+            &self.cn,
+            &self.id,
+            &self.d,
+            &self.f,
+            &self.excl,
+            &self.line_g,
+            &self.line_ib,
+            corrected,
+        )
     }
 
     /// Copies the level's operator into split layout; with `lines`, also factorises the
@@ -907,24 +908,19 @@ impl Multigrid {
                 self.correct(l + 1, top, floor);
             }
         }
-        {
-            let (fo, co) = self.ops.split_at_mut(l + 1);
-            let fine = &mut fo[l];
-            let use_mask = fine.excl.active;
-            prolong_add(fine, &co[0].u, use_mask, &mut self.row);
-        }
-        let o = &mut self.ops[l];
-        if let Some(flv) = fl {
-            o.u.iter_mut().for_each(|x| *x = x.max(flv));
-        }
-        let corrected = l != top && o.excl.active;
-        smooth(
-            o,
+        let (fo, co) = self.ops.split_at_mut(l + 1);
+        let fine = &mut fo[l];
+        let use_mask = fine.excl.active;
+        let corrected = l != top && fine.excl.active;
+        prolong_smooth(
+            fine,
+            &co[0].u,
+            use_mask,
+            &mut self.row,
             c.post_sweeps,
             fl,
             c.omega,
             corrected,
-            false,
             self.use_lines,
         );
     }
@@ -1194,7 +1190,40 @@ impl HalfRow {
     }
 }
 
-impl Kernel<'_> {
+impl<'a> Kernel<'a> {
+    /// The kernel of one level's operator: with `corrected`, the boundary-corrected diagonal
+    /// and the mask of the level's exclusion.
+    #[allow(clippy::too_many_arguments)]
+    fn new(
+        lay: Layout,
+        ce: &'a [f64],
+        cn: &'a [f64],
+        id: &'a [f64],
+        d: &'a [f64],
+        f: &'a [f64],
+        excl: &'a Exclusion,
+        line_g: &'a [f64],
+        line_ib: &'a [f64],
+        corrected: bool,
+    ) -> Self {
+        let (id, d, mask): (&[f64], &[f64], &[bool]) = if corrected {
+            (&excl.inv_diag, &excl.diag, &excl.mask)
+        } else {
+            (id, d, &[])
+        };
+        Kernel {
+            lay,
+            ce,
+            cn,
+            id,
+            d,
+            f,
+            mask,
+            line_g,
+            line_ib,
+        }
+    }
+
     /// One zebra sweep of line Gauss–Seidel along η: every even column's tridiagonal system
     /// (the integrated Reynolds equations of the column with the east and west neighbours held,
     /// conductances m³/(Pa·s), pressures Pa, sources m³/s) is solved exactly by the Thomas
@@ -1302,6 +1331,23 @@ impl Kernel<'_> {
         omega: f64,
         floor: f64,
     ) -> f64 {
+        self.sweep_after::<FLOOR, MASK, RES>(u, r, omega, floor, |_, _| {})
+    }
+
+    /// [`Kernel::sweep`] that first lets `ahead(u, j)` finish row `j` of the iterate (for
+    /// example, add the coarse correction to it) just before the sweep reads that row: row 1
+    /// before the first update, row `j + 1` before the red update of row `j`. Every row is
+    /// finished before any update reads it, so the result is that of finishing all rows first
+    /// and sweeping after, for one pass over memory instead of two.
+    #[inline(always)]
+    fn sweep_after<const FLOOR: bool, const MASK: bool, const RES: bool>(
+        &self,
+        u: &mut [f64],
+        r: &mut [f64],
+        omega: f64,
+        floor: f64,
+        mut ahead: impl FnMut(&mut [f64], usize),
+    ) -> f64 {
         let lay = self.lay;
         let ny = lay.ny;
         let mut sum = 0.0;
@@ -1309,7 +1355,13 @@ impl Kernel<'_> {
             r[..lay.w].fill(0.0);
             r[ny * lay.w..].fill(0.0);
         }
+        if ny >= 2 {
+            ahead(u, 1);
+        }
         for j in 1..=ny {
+            if j + 1 < ny {
+                ahead(u, j + 1);
+            }
             if j < ny {
                 // Red nodes of row j: the even half on even rows.
                 self.update::<FLOOR, MASK, false>(u, r, j, j % 2 == 0, omega, floor);
@@ -1548,41 +1600,68 @@ fn restrict(fine: &Ops, r: &[f64], coarse: &mut Ops, tmp: &mut [f64]) {
     }
 }
 
-/// Adds the bilinear interpolation of the coarse correction `uc` to the fine `u` on interior
-/// nodes, skipping the fine level's excluded nodes if `use_mask`.
-fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) {
-    let Ops {
-        lay: fl,
-        u,
-        excl,
-        wl,
-        wr,
-        wyl,
-        wyr,
-        ..
-    } = fine;
-    let fl = *fl;
-    let mask = use_mask.then_some(&excl.mask[..]);
-    let (cnx, cny) = (fl.nx / 2, fl.ny / 2);
-    let cl = Layout::new(cnx, cny);
-    let (w, he) = (fl.w, fl.he);
-    let ho = w - he;
-    // Coarse rows in natural column order: crow(J)[I], width cnx + 1.
-    let cw = cnx + 1;
-    let (row_buf, line) = row_buf.split_at_mut((cny + 1) * cw);
-    cl.to_natural(uc, &mut row_buf[..cl.len()]);
-    for j in 1..fl.ny {
+/// Bilinear interpolation of a coarse correction onto the fine level, row by row: adds it to
+/// the fine iterate on interior nodes (skipping the fine level's excluded nodes if a mask is
+/// given) and clips the row at the cavitation floor if one is given.
+struct Prolong<'a> {
+    fl: Layout,
+    /// Coarse correction in natural order, rows of `cnx + 1`.
+    coarse: &'a [f64],
+    /// Scratch: the coarse rows interpolated along η onto one fine row.
+    line: &'a mut [f64],
+    wl: &'a [f64],
+    wr: &'a [f64],
+    wyl: &'a [f64],
+    wyr: &'a [f64],
+    mask: Option<&'a [bool]>,
+    floor: Option<f64>,
+}
+
+impl<'a> Prolong<'a> {
+    /// Prepares the interpolation of the coarse correction `uc` (split layout of the next
+    /// coarser level) with `fine`'s weights; `row_buf` is scratch.
+    fn new(
+        fine: &'a Ops,
+        uc: &[f64],
+        use_mask: bool,
+        floor: Option<f64>,
+        row_buf: &'a mut [f64],
+    ) -> Self {
+        let fl = fine.lay;
+        let cl = Layout::new(fl.nx / 2, fl.ny / 2);
+        let (coarse, line) = row_buf.split_at_mut(cl.len());
+        cl.to_natural(uc, coarse);
+        Prolong {
+            fl,
+            coarse,
+            line,
+            wl: &fine.wl,
+            wr: &fine.wr,
+            wyl: &fine.wyl,
+            wyr: &fine.wyr,
+            mask: use_mask.then_some(&fine.excl.mask[..]),
+            floor,
+        }
+    }
+
+    /// Adds the interpolated correction to interior row `j` (1 ≤ j < ny) of `u` (Pa), then
+    /// clips the whole row at the floor if there is one.
+    #[inline(always)]
+    fn row(&mut self, u: &mut [f64], j: usize) {
+        let fl = self.fl;
+        let (cnx, w, he) = (fl.nx / 2, fl.w, fl.he);
+        let (cw, ho) = (cnx + 1, w - he);
         let row = j * w;
         // Interpolate the coarse row(s) onto this fine row: even and odd fine columns.
         let (ja, jb, a, b) = if j % 2 == 0 {
             (j / 2, j / 2, 1.0, 0.0)
         } else {
-            ((j - 1) / 2, j.div_ceil(2), wyl[j], wyr[j])
+            ((j - 1) / 2, j.div_ceil(2), self.wyl[j], self.wyr[j])
         };
-        let ca = &row_buf[ja * cw..(ja + 1) * cw];
-        let cb = &row_buf[jb * cw..(jb + 1) * cw];
+        let ca = &self.coarse[ja * cw..(ja + 1) * cw];
+        let cb = &self.coarse[jb * cw..(jb + 1) * cw];
         // The coarse correction interpolated along η onto this fine row, at the coarse columns.
-        let lin = &mut line[..cw];
+        let lin = &mut self.line[..cw];
         if b == 0.0 {
             lin.copy_from_slice(ca);
         } else {
@@ -1590,9 +1669,11 @@ fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) 
                 *l = a * x + b * y;
             }
         }
-        let (ue, uo) = u[row..row + w].split_at_mut(he);
+        let urow = &mut u[row..row + w];
+        let (ue, uo) = urow.split_at_mut(he);
         let no = ho.min(cnx);
-        match mask {
+        let (wl, wr) = (self.wl, self.wr);
+        match self.mask {
             None => {
                 // Even columns i = 2I (interior I = 1..cnx−1).
                 for (x, &c) in ue[1..cnx].iter_mut().zip(&lin[1..cnx]) {
@@ -1618,7 +1699,77 @@ fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) 
                 }
             }
         }
+        if let Some(f) = self.floor {
+            urow.iter_mut().for_each(|x| *x = x.max(f));
+        }
     }
+}
+
+/// Adds the bilinear interpolation of the coarse correction `uc` to the fine `u` on interior
+/// nodes, skipping the fine level's excluded nodes if `use_mask`.
+fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) {
+    let mut u = std::mem::take(&mut fine.u);
+    {
+        let mut p = Prolong::new(fine, uc, use_mask, None, row_buf);
+        for j in 1..fine.lay.ny {
+            p.row(&mut u, j);
+        }
+    }
+    fine.u = u;
+}
+
+/// Adds the coarse correction `uc` to the fine level (as [`prolong_add`]), clips it at `floor`
+/// if given, and post-smooths it by `sweeps` red–black sweeps (as [`smooth`], no residual).
+/// With point smoothing the first sweep adds the correction to each row just before it reads
+/// it, so the correction and the sweep share one pass over memory.
+#[allow(clippy::too_many_arguments)]
+fn prolong_smooth(
+    fine: &mut Ops,
+    uc: &[f64],
+    use_mask: bool,
+    row_buf: &mut [f64],
+    sweeps: usize,
+    floor: Option<f64>,
+    omega: f64,
+    corrected: bool,
+    lines: bool,
+) {
+    // Line smoothing (see `smooth`) sweeps by columns: it gets the correction first.
+    let line_path = lines && floor.is_none() && !corrected;
+    if sweeps == 0 || line_path {
+        prolong_add(fine, uc, use_mask, row_buf);
+        if let Some(fl) = floor {
+            fine.u.iter_mut().for_each(|x| *x = x.max(fl));
+        }
+        smooth(fine, sweeps, floor, omega, corrected, false, lines);
+        return;
+    }
+    let mut u = std::mem::take(&mut fine.u);
+    let mut r = std::mem::take(&mut fine.r);
+    {
+        let ny = fine.lay.ny;
+        let mut p = Prolong::new(fine, uc, use_mask, floor, row_buf);
+        if let Some(fl) = floor {
+            // The edge rows take no correction but are clipped like the others.
+            let w = fine.lay.w;
+            let (first, rest) = u.split_at_mut(w);
+            for x in first.iter_mut().chain(rest[(ny - 1) * w..].iter_mut()) {
+                *x = x.max(fl);
+            }
+        }
+        let ahead = |u: &mut [f64], j: usize| p.row(u, j);
+        let k = fine.kernel(corrected);
+        let fl = floor.unwrap_or(0.0);
+        match (floor.is_some(), corrected) {
+            (false, false) => k.sweep_after::<false, false, false>(&mut u, &mut r, omega, fl, ahead),
+            (true, false) => k.sweep_after::<true, false, false>(&mut u, &mut r, omega, fl, ahead),
+            (false, true) => k.sweep_after::<false, true, false>(&mut u, &mut r, omega, fl, ahead),
+            (true, true) => k.sweep_after::<true, true, false>(&mut u, &mut r, omega, fl, ahead),
+        };
+    }
+    fine.u = u;
+    fine.r = r;
+    smooth(fine, sweeps - 1, floor, omega, corrected, false, lines);
 }
 
 /// Lagrange weights of the nodes `x[i0..i0 + 4]` for interpolation at `t`.
