@@ -307,8 +307,8 @@ pub struct NumericsSpec {
     pub relaxation_factor: f64,
     /// Multigrid: coarse-grid visits per level (1: V-cycle, 2: W-cycle).
     pub coarse_grid_visits: usize,
-    /// Multigrid: smooth along lines across the motion where the cells couple more strongly
-    /// across the motion than along it (narrow or long pads).
+    /// Multigrid: smooth along lines where the cells couple more strongly in one direction
+    /// everywhere: across the motion (narrow or long pads) or along it (short, wide pads).
     pub line_smoothing: bool,
 }
 

@@ -38,25 +38,48 @@ use super::stencil::Level;
 const MIN_COARSE_INTERVALS: usize = 8;
 
 /// Line smoothing along η is used when every fine node couples at least this strongly along η
-/// as along ξ (ratio of the summed north/south to east/west conductances): below it the
-/// ξ-coupling dominates somewhere, which η-lines do not smooth better than points.
+/// as along ξ (ratio of the summed north/south to east/west conductances), and line smoothing
+/// along ξ when every node couples at least this strongly along ξ as along η. Between the two
+/// (cells coupling more strongly along η in one part of the pad and along ξ in another, such
+/// as the inner and outer part of a wide sector) neither kind of line smooths better than
+/// points.
 const LINE_THRESHOLD: f64 = 0.8;
 
-/// Whether every interior node of `level` couples at least `ratio` times as strongly along η
-/// (north plus south conductance) as along ξ (east plus west). Stops at the first node that
-/// does not, which on a sector pad is usually in the first rows (the inner radius).
-fn eta_coupling_at_least(level: &Level, ratio: f64) -> bool {
+/// How the unconstrained levels are smoothed.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum Smoother {
+    /// Over-relaxed red–black point Gauss–Seidel.
+    Points,
+    /// Zebra line Gauss–Seidel along η (lines across the motion).
+    EtaLines,
+    /// Zebra line Gauss–Seidel along ξ (lines along the motion).
+    XiLines,
+}
+
+/// The smoother for the coupling of `level`'s interior nodes: the smallest and largest ratio
+/// of the η-coupling (north plus south conductance) to the ξ-coupling (east plus west) decide
+/// whether one direction dominates everywhere (see [`LINE_THRESHOLD`]).
+fn smoother_for(level: &Level) -> Smoother {
     let (nx, ny) = (level.grid.nx, level.grid.ny);
     let w = nx + 1;
+    let (mut eta_everywhere, mut xi_everywhere) = (true, true);
     for j in 1..ny {
         let row = j * w;
-        let ok = (row + 1..row + nx)
-            .all(|k| level.cn[k] + level.cn[k - w] >= ratio * (level.ce[k] + level.ce[k - 1]));
-        if !ok {
-            return false;
+        for k in row + 1..row + nx {
+            let eta = level.cn[k] + level.cn[k - w];
+            let xi = level.ce[k] + level.ce[k - 1];
+            eta_everywhere &= eta >= LINE_THRESHOLD * xi;
+            xi_everywhere &= xi >= LINE_THRESHOLD * eta;
+        }
+        if !eta_everywhere && !xi_everywhere {
+            return Smoother::Points;
         }
     }
-    true
+    if eta_everywhere {
+        Smoother::EtaLines
+    } else {
+        Smoother::XiLines
+    }
 }
 
 /// What the convergence check of the top level does before measuring the residual.
@@ -325,16 +348,47 @@ impl Ops {
         )
     }
 
-    /// Copies the level's operator into split layout; with `lines`, also factorises the
-    /// tridiagonal systems of the line smoother.
-    fn load(&mut self, level: &Level, lines: bool) {
+    /// Copies the level's operator into split layout; for line smoothing, also factorises the
+    /// tridiagonal systems of the lines.
+    fn load(&mut self, level: &Level, lines: Smoother) {
         self.lay.to_split(&level.ce, &mut self.ce);
         self.lay.to_split(&level.cn, &mut self.cn);
         self.lay.to_split(&level.inv_diag, &mut self.id);
         self.lay.to_split(&level.diag, &mut self.d);
-        if !lines {
-            return;
+        match lines {
+            Smoother::Points => {}
+            Smoother::EtaLines => self.factor_eta_lines(),
+            Smoother::XiLines => self.factor_xi_lines(),
         }
+    }
+
+    /// Thomas factorisation of every row's tridiagonal system along ξ,
+    /// `d_i u_i − c_e(i) u_{i+1} − c_e(i − 1) u_{i−1}` (the five-point operator with the north
+    /// and south neighbours held), into `line_g` (forward multipliers
+    /// `g_i = c_e(i − 1)/β_{i − 1}`) and `line_ib` (inverse pivots `1/β_i`), split layout.
+    fn factor_xi_lines(&mut self) {
+        let lay = self.lay;
+        for j in 1..lay.ny {
+            let row = j * lay.w;
+            for i in 1..lay.nx {
+                let k = row + lay.pos(i, 0);
+                if i == 1 {
+                    self.line_g[k] = 0.0;
+                    self.line_ib[k] = 1.0 / self.d[k];
+                } else {
+                    let km = row + lay.pos(i - 1, 0);
+                    let c = self.ce[km];
+                    let g = c * self.line_ib[km];
+                    self.line_g[k] = g;
+                    self.line_ib[k] = 1.0 / (self.d[k] - c * g);
+                }
+            }
+        }
+    }
+
+    /// Thomas factorisation of every column's tridiagonal system along η (see
+    /// [`Ops::factor_xi_lines`], with `c_n` in place of `c_e`).
+    fn factor_eta_lines(&mut self) {
         // Thomas factorisation of every column's tridiagonal system
         // `d_j u_j − c_n(j) u_{j+1} − c_n(j − 1) u_{j−1}`, all columns at once, row by row.
         let lay = self.lay;
@@ -367,11 +421,14 @@ pub struct CycleSettings {
     pub omega: f64,
     /// Number of coarse-grid visits per level (1: V-cycle, 2: W-cycle).
     pub gamma: usize,
-    /// Smooth the unconstrained levels by zebra line Gauss–Seidel along η (radial lines on a
-    /// sector) instead of point red–black Gauss–Seidel, where every node of the finest level
-    /// couples at least 0.8 times as strongly along η as along ξ. Point smoothing slows down
-    /// as the cells grow anisotropic (narrow sectors, pads wider along the motion than
-    /// across); line smoothing keeps about three cycles after full multigrid there.
+    /// Smooth the unconstrained levels by zebra line Gauss–Seidel instead of point red–black
+    /// Gauss–Seidel where one direction dominates the coupling everywhere: along η (radial
+    /// lines on a sector) where every node of the finest level couples at least 0.8 times as
+    /// strongly along η as along ξ, along ξ (lines in the direction of motion) where every
+    /// node couples at least 0.8 times as strongly along ξ as along η. Point smoothing slows
+    /// down as the cells grow anisotropic (narrow sectors and pads long along the motion; pads
+    /// short along the motion and wide across it); line smoothing keeps about three cycles
+    /// after full multigrid there.
     pub lines: bool,
 }
 
@@ -419,8 +476,8 @@ pub struct Multigrid {
     solution: Vec<f64>,
     /// Cycle parameters.
     pub cycle: CycleSettings,
-    /// Whether the unconstrained levels are smoothed along lines (decided at assembly).
-    use_lines: bool,
+    /// How the unconstrained levels are smoothed (decided at assembly).
+    use_lines: Smoother,
     /// The solution before the current one (finest level, split layout), for warm starts.
     /// The solutions before the current one, newest first (finest level, split layout), for
     /// warm starts; the first `history_len` are valid.
@@ -468,7 +525,7 @@ impl Multigrid {
             rhs: vec![0.0; n],
             solution: vec![0.0; n],
             cycle: CycleSettings::default(),
-            use_lines: false,
+            use_lines: Smoother::Points,
             history: std::array::from_fn(|_| vec![0.0; n]),
             history_len: 0,
             history_residual: std::array::from_fn(|_| vec![0.0; n]),
@@ -512,7 +569,11 @@ impl Multigrid {
                 hmin = h;
             }
         }
-        self.use_lines = self.cycle.lines && eta_coupling_at_least(&self.levels[0], LINE_THRESHOLD);
+        self.use_lines = if self.cycle.lines {
+            smoother_for(&self.levels[0])
+        } else {
+            Smoother::Points
+        };
         for (l, o) in self.levels.iter().zip(&mut self.ops) {
             o.load(l, self.use_lines);
         }
@@ -962,7 +1023,7 @@ impl Multigrid {
                     o.u.iter_mut().for_each(|x| *x = x.max(fl));
                 }
                 let sweeps = 4 * (lay.nx + lay.ny);
-                smooth(o, sweeps, Some(fl), 1.0, false, false, false);
+                smooth(o, sweeps, Some(fl), 1.0, false, false, Smoother::Points);
             }
             _ if o.excl.active => {
                 // Masked solve: rows of excluded nodes become identities.
@@ -1116,18 +1177,19 @@ fn smooth(
     omega: f64,
     corrected: bool,
     with_residual: bool,
-    lines: bool,
+    lines: Smoother,
 ) -> f64 {
     let (k, u, r) = o.parts(corrected);
-    if lines && floor.is_none() && !corrected {
+    if lines != Smoother::Points && floor.is_none() && !corrected {
         // Exact line solves need no over-relaxation.
         let mut sum = 0.0;
         for s in 0..sweeps {
             let res = with_residual && s + 1 == sweeps;
-            sum = if res {
-                k.line_sweep::<true>(u, r, 1.0)
-            } else {
-                k.line_sweep::<false>(u, r, 1.0)
+            sum = match (lines, res) {
+                (Smoother::XiLines, true) => k.xi_line_sweep::<true>(u, r),
+                (Smoother::XiLines, false) => k.xi_line_sweep::<false>(u, r),
+                (_, true) => k.line_sweep::<true>(u, r, 1.0),
+                (_, false) => k.line_sweep::<false>(u, r, 1.0),
             };
         }
         return sum;
@@ -1309,6 +1371,88 @@ impl<'a> Kernel<'a> {
             sum
         } else {
             self.residual::<false>(u, r)
+        }
+    }
+
+    /// One zebra sweep of line Gauss–Seidel along ξ: every even row's tridiagonal system (the
+    /// integrated Reynolds equations of the row with the north and south neighbours held,
+    /// conductances m³/(Pa·s), pressures Pa, sources m³/s) is solved exactly by the Thomas
+    /// algorithm with the factors of [`Ops::factor_xi_lines`], then every odd row's. Rows of
+    /// one colour are independent; they are solved four at a time in lockstep so that the
+    /// four recurrences overlap. `r` serves as scratch.
+    ///
+    /// With `RES` the residual of the new iterate is left in `r` and `Σ r²` returned; the odd
+    /// rows' residual is zero by construction (their line equations hold with the final even
+    /// rows), so only the even rows are evaluated.
+    fn xi_line_sweep<const RES: bool>(&self, u: &mut [f64], r: &mut [f64]) -> f64 {
+        let (nx, ny) = (self.lay.nx, self.lay.ny);
+        if nx < 2 || ny < 2 {
+            return 0.0;
+        }
+        for first in [2usize, 1] {
+            let rows: Vec<usize> = (first..ny).step_by(2).collect();
+            let mut groups = rows.chunks_exact(4);
+            for g in groups.by_ref() {
+                self.xi_lines::<4>(u, r, [g[0], g[1], g[2], g[3]]);
+            }
+            for &j in groups.remainder() {
+                self.xi_lines::<1>(u, r, [j]);
+            }
+        }
+        if !RES {
+            return 0.0;
+        }
+        r.fill(0.0);
+        let mut sum = 0.0;
+        for j in (2..ny).step_by(2) {
+            sum += self.residual_half::<false>(u, r, j, true);
+            sum += self.residual_half::<false>(u, r, j, false);
+        }
+        sum
+    }
+
+    /// Solves the ξ-line systems of the `G` rows `rows` (see [`Kernel::xi_line_sweep`]),
+    /// overwriting their interior nodes in `u`; `r` holds the eliminated right-hand sides.
+    #[inline(always)]
+    fn xi_lines<const G: usize>(&self, u: &mut [f64], r: &mut [f64], rows: [usize; G]) {
+        let lay = self.lay;
+        let (w, nx) = (lay.w, lay.nx);
+        let off = |i: usize| lay.pos(i, 0);
+        let base = rows.map(|j| j * w);
+        // The edge nodes (i = 0 and nx, held) enter the right-hand sides of the first and the
+        // last interior node.
+        let (o0, o1, oe) = (off(0), off(nx - 1), off(nx));
+        let west = base.map(|b| self.ce[b + o0] * u[b + o0]);
+        let east = base.map(|b| self.ce[b + o1] * u[b + oe]);
+        // Forward elimination y_i = b_i + g_i y_{i−1}, where b_i holds the source, the held
+        // north and south neighbours and the edges.
+        let mut y = [0.0; G];
+        for i in 1..nx {
+            let o = off(i);
+            let (at_west, at_east) = (i == 1, i + 1 == nx);
+            for q in 0..G {
+                let k = base[q] + o;
+                let mut b = self.f[k] + self.cn[k] * u[k + w] + self.cn[k - w] * u[k - w];
+                if at_west {
+                    b += west[q];
+                }
+                if at_east {
+                    b += east[q];
+                }
+                y[q] = b + self.line_g[k] * y[q];
+                r[k] = y[q];
+            }
+        }
+        // Back substitution u_i = (y_i + c_e(i) u_{i+1}) / β_i (no interior u_{i+1} for the
+        // last node: v starts at zero).
+        let mut v = [0.0; G];
+        for i in (1..nx).rev() {
+            let o = off(i);
+            for q in 0..G {
+                let k = base[q] + o;
+                v[q] = (r[k] + self.ce[k] * v[q]) * self.line_ib[k];
+                u[k] = v[q];
+            }
         }
     }
 
@@ -1653,7 +1797,7 @@ impl<'a> Prolong<'a> {
         let (cw, ho) = (cnx + 1, w - he);
         let row = j * w;
         // Interpolate the coarse row(s) onto this fine row: even and odd fine columns.
-        let (ja, jb, a, b) = if j % 2 == 0 {
+        let (ja, jb, a, b) = if j.is_multiple_of(2) {
             (j / 2, j / 2, 1.0, 0.0)
         } else {
             ((j - 1) / 2, j.div_ceil(2), self.wyl[j], self.wyr[j])
@@ -1732,10 +1876,10 @@ fn prolong_smooth(
     floor: Option<f64>,
     omega: f64,
     corrected: bool,
-    lines: bool,
+    lines: Smoother,
 ) {
-    // Line smoothing (see `smooth`) sweeps by columns: it gets the correction first.
-    let line_path = lines && floor.is_none() && !corrected;
+    // Line smoothing (see `smooth`) sweeps by whole lines: it gets the correction first.
+    let line_path = lines != Smoother::Points && floor.is_none() && !corrected;
     if sweeps == 0 || line_path {
         prolong_add(fine, uc, use_mask, row_buf);
         if let Some(fl) = floor {
@@ -1761,7 +1905,9 @@ fn prolong_smooth(
         let k = fine.kernel(corrected);
         let fl = floor.unwrap_or(0.0);
         match (floor.is_some(), corrected) {
-            (false, false) => k.sweep_after::<false, false, false>(&mut u, &mut r, omega, fl, ahead),
+            (false, false) => {
+                k.sweep_after::<false, false, false>(&mut u, &mut r, omega, fl, ahead)
+            }
             (true, false) => k.sweep_after::<true, false, false>(&mut u, &mut r, omega, fl, ahead),
             (false, true) => k.sweep_after::<false, true, false>(&mut u, &mut r, omega, fl, ahead),
             (true, true) => k.sweep_after::<true, true, false>(&mut u, &mut r, omega, fl, ahead),
