@@ -32,25 +32,79 @@ use std::time::{Duration, Instant};
 const TOL: f64 = 1e-8;
 const SIZES: [usize; 4] = [33, 65, 129, 257];
 
-/// A sector pad of usual proportions on a point pivot (bench data, invented).
+/// The benchmark pad: a sector of usual proportions (bench data, invented).
+const PAD: PadOutline = PadOutline::Sector {
+    inner_radius: 0.06,
+    outer_radius: 0.12,
+    arc: 45.0 * std::f64::consts::PI / 180.0,
+};
+
+/// The benchmark pad on a point pivot.
 fn solver(n: usize, support: Support, cavitation: bool) -> ReynoldsSolver {
-    let o = PadOutline::Sector {
-        inner_radius: 0.06,
-        outer_radius: 0.12,
-        arc: 45f64.to_radians(),
+    shaped_solver(PAD, n, support, cavitation, true)
+}
+
+/// A pad of outline `o` at 3000 rpm (sector) or 20 m/s (rectangle); `lines`: automatic line
+/// smoothing allowed.
+fn shaped_solver(
+    o: PadOutline,
+    n: usize,
+    support: Support,
+    cavitation: bool,
+    lines: bool,
+) -> ReynoldsSolver {
+    let speed = match o {
+        PadOutline::Sector { .. } => RunnerSpeed::Angular(3000.0 * std::f64::consts::PI / 30.0),
+        PadOutline::Rectangle { .. } => RunnerSpeed::Linear(20.0),
     };
-    let frame = PadFrame::new(
-        o,
-        RunnerSpeed::Angular(3000.0 * std::f64::consts::PI / 30.0),
-    )
-    .unwrap();
+    let frame = PadFrame::new(o, speed).unwrap();
     let film = FilmModel::new(o, support).unwrap();
-    let settings = ReynoldsSettings {
+    let mut settings = ReynoldsSettings {
         tolerance: TOL,
+        max_cycles: 500,
         cavitation,
         ..Default::default()
     };
+    settings.cycle.lines = lines;
     ReynoldsSolver::new(frame, film, Grid::new(n, n, None).unwrap(), settings)
+}
+
+/// Pad shapes whose cells range from strongly anisotropic one way to the other (bench data,
+/// invented): name and outline.
+fn shapes() -> Vec<(&'static str, PadOutline)> {
+    let sector = |inner_radius: f64, outer_radius: f64, arc_deg: f64| PadOutline::Sector {
+        inner_radius,
+        outer_radius,
+        arc: arc_deg.to_radians(),
+    };
+    vec![
+        ("sector 100–120 mm, 20° (narrow)", sector(0.10, 0.12, 20.0)),
+        ("sector 60–120 mm, 45° (the pad above)", PAD),
+        ("sector 60–120 mm, 30°", sector(0.06, 0.12, 30.0)),
+        ("sector 100–250 mm, 45°", sector(0.10, 0.25, 45.0)),
+        (
+            "sector 100–250 mm, 20° (short, wide)",
+            sector(0.10, 0.25, 20.0),
+        ),
+        (
+            "sector 100–250 mm, 10° (short, wide)",
+            sector(0.10, 0.25, 10.0),
+        ),
+        (
+            "rectangle 25 × 50 mm (short, wide)",
+            PadOutline::Rectangle {
+                length: 0.025,
+                width: 0.05,
+            },
+        ),
+        (
+            "rectangle 100 × 50 mm (long)",
+            PadOutline::Rectangle {
+                length: 0.1,
+                width: 0.05,
+            },
+        ),
+    ]
 }
 
 fn tilting() -> Support {
@@ -393,6 +447,45 @@ fn main() {
         });
         g.finish();
     }
+    // Cold solves at 129² on pads of other shapes, with the automatic choice of smoother and
+    // with point smoothing only.
+    let mut shape_table = String::from(
+        "| pad (129² nodes, cold) | cycles, automatic smoother | work units | cycles, point smoothing only | work units |\n|---|---|---|---|---|\n",
+    );
+    for (name, o) in shapes() {
+        let n = 129;
+        let film_state = FilmState {
+            reference: 30e-6,
+            pitch: 20e-6 / o.area().sqrt(),
+            roll: 0.0,
+            crown: 0.0,
+        };
+        let mut cells = Vec::new();
+        for lines in [true, false] {
+            let mut s = shaped_solver(o, n, tilting(), false, lines);
+            s.assemble(&film_state, &vec![0.02; n * n]).unwrap();
+            let mut unit = Unit {
+                lvl: s.level().clone(),
+                p: vec![0.0; n * n],
+                b: s.rhs().to_vec(),
+                r: vec![0.0; n * n],
+            };
+            let rep = s.solve_assembled(Start::Cold).unwrap();
+            let (t, tu) = paired(
+                || {
+                    s.solve_assembled(Start::Cold).unwrap();
+                },
+                &mut unit,
+                budget / 2,
+            );
+            cells.push(format!(
+                "FMG + {} | {:.0}",
+                rep.cycles,
+                t.as_secs_f64() / tu.as_secs_f64()
+            ));
+        }
+        shape_table.push_str(&format!("| {name} | {} | {} |\n", cells[0], cells[1]));
+    }
     c.final_summary();
 
     let mut out = String::new();
@@ -414,6 +507,8 @@ fn main() {
             row.work_units / cold.work_units
         ));
     }
+    out.push('\n');
+    out.push_str(&shape_table);
     println!("\n{out}");
     let path =
         std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../../target/bench-reynolds.md");

@@ -39,7 +39,9 @@ const MIN_COARSE_INTERVALS: usize = 8;
 
 /// Line smoothing along η is used when every fine node couples at least this strongly along η
 /// as along ξ (ratio of the summed north/south to east/west conductances), and line smoothing
-/// along ξ when every node couples at least this strongly along ξ as along η. Between the two
+/// along ξ when every node couples at most this strongly along η as along ξ (at least 1.25
+/// times more strongly along ξ: a ξ-line sweep costs about twice a point sweep, so it has to
+/// save more cycles than an η-line sweep, which vectorises across the lines). Between the two
 /// (cells coupling more strongly along η in one part of the pad and along ξ in another, such
 /// as the inner and outer part of a wide sector) neither kind of line smooths better than
 /// points.
@@ -69,7 +71,7 @@ fn smoother_for(level: &Level) -> Smoother {
             let eta = level.cn[k] + level.cn[k - w];
             let xi = level.ce[k] + level.ce[k - 1];
             eta_everywhere &= eta >= LINE_THRESHOLD * xi;
-            xi_everywhere &= xi >= LINE_THRESHOLD * eta;
+            xi_everywhere &= eta <= LINE_THRESHOLD * xi;
         }
         if !eta_everywhere && !xi_everywhere {
             return Smoother::Points;
@@ -425,7 +427,7 @@ pub struct CycleSettings {
     /// Gauss–Seidel where one direction dominates the coupling everywhere: along η (radial
     /// lines on a sector) where every node of the finest level couples at least 0.8 times as
     /// strongly along η as along ξ, along ξ (lines in the direction of motion) where every
-    /// node couples at least 0.8 times as strongly along ξ as along η. Point smoothing slows
+    /// node couples at least 1.25 times as strongly along ξ as along η. Point smoothing slows
     /// down as the cells grow anisotropic (narrow sectors and pads long along the motion; pads
     /// short along the motion and wide across it); line smoothing keeps about three cycles
     /// after full multigrid there.
