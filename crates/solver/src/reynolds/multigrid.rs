@@ -1202,17 +1202,7 @@ fn smooth(
     let mut sum = 0.0;
     for s in 0..sweeps {
         let res = with_residual && s + 1 == sweeps;
-        let fl = floor.unwrap_or(0.0);
-        sum = match (floor.is_some(), corrected, res) {
-            (false, false, false) => k.sweep::<false, false, false>(u, r, omega, fl),
-            (true, false, false) => k.sweep::<true, false, false>(u, r, omega, fl),
-            (false, true, false) => k.sweep::<false, true, false>(u, r, omega, fl),
-            (true, true, false) => k.sweep::<true, true, false>(u, r, omega, fl),
-            (false, false, true) => k.sweep::<false, false, true>(u, r, omega, fl),
-            (true, false, true) => k.sweep::<true, false, true>(u, r, omega, fl),
-            (false, true, true) => k.sweep::<false, true, true>(u, r, omega, fl),
-            (true, true, true) => k.sweep::<true, true, true>(u, r, omega, fl),
-        };
+        sum = k.point_sweep(u, r, omega, floor, corrected, res, |_, _| {});
     }
     sum
 }
@@ -1258,6 +1248,33 @@ impl HalfRow {
 }
 
 impl<'a> Kernel<'a> {
+    /// [`Kernel::sweep`] with its variant chosen at run time: projected on `floor` if given,
+    /// with the level's exclusion if `corrected`, producing the residual if `res`.
+    #[allow(clippy::too_many_arguments)]
+    #[inline(always)]
+    fn point_sweep(
+        &self,
+        u: &mut [f64],
+        r: &mut [f64],
+        omega: f64,
+        floor: Option<f64>,
+        corrected: bool,
+        res: bool,
+        ahead: impl FnMut(&mut [f64], usize),
+    ) -> f64 {
+        let fl = floor.unwrap_or(0.0);
+        match (floor.is_some(), corrected, res) {
+            (false, false, false) => self.sweep::<false, false, false>(u, r, omega, fl, ahead),
+            (true, false, false) => self.sweep::<true, false, false>(u, r, omega, fl, ahead),
+            (false, true, false) => self.sweep::<false, true, false>(u, r, omega, fl, ahead),
+            (true, true, false) => self.sweep::<true, true, false>(u, r, omega, fl, ahead),
+            (false, false, true) => self.sweep::<false, false, true>(u, r, omega, fl, ahead),
+            (true, false, true) => self.sweep::<true, false, true>(u, r, omega, fl, ahead),
+            (false, true, true) => self.sweep::<false, true, true>(u, r, omega, fl, ahead),
+            (true, true, true) => self.sweep::<true, true, true>(u, r, omega, fl, ahead),
+        }
+    }
+
     /// The kernel of one level's operator: with `corrected`, the boundary-corrected diagonal
     /// and the mask of the level's exclusion.
     #[allow(clippy::too_many_arguments)]
@@ -1473,24 +1490,14 @@ impl<'a> Kernel<'a> {
     /// residual is `sum − d u_new`, where `sum = f + Σ c u_nb` was formed for its update (its red
     /// neighbours do not change afterwards); the red residual of row `j − 2` is computed once
     /// the black rows around it are final. Returns `Σ r²` (zero without `RES`).
+    ///
+    /// Before the sweep reads a row, `ahead(u, j)` may finish row `j` of the iterate (for
+    /// example, add the coarse correction to it): row 1 before the first update, row `j + 1`
+    /// before the red update of row `j`. Every row is finished before any update reads it, so
+    /// the result is that of finishing all rows first and sweeping after, for one pass over
+    /// memory instead of two.
     #[inline(always)]
     fn sweep<const FLOOR: bool, const MASK: bool, const RES: bool>(
-        &self,
-        u: &mut [f64],
-        r: &mut [f64],
-        omega: f64,
-        floor: f64,
-    ) -> f64 {
-        self.sweep_after::<FLOOR, MASK, RES>(u, r, omega, floor, |_, _| {})
-    }
-
-    /// [`Kernel::sweep`] that first lets `ahead(u, j)` finish row `j` of the iterate (for
-    /// example, add the coarse correction to it) just before the sweep reads that row: row 1
-    /// before the first update, row `j + 1` before the red update of row `j`. Every row is
-    /// finished before any update reads it, so the result is that of finishing all rows first
-    /// and sweeping after, for one pass over memory instead of two.
-    #[inline(always)]
-    fn sweep_after<const FLOOR: bool, const MASK: bool, const RES: bool>(
         &self,
         u: &mut [f64],
         r: &mut [f64],
@@ -1909,15 +1916,7 @@ fn prolong_smooth(
         }
         let ahead = |u: &mut [f64], j: usize| p.row(u, j);
         let k = fine.kernel(corrected);
-        let fl = floor.unwrap_or(0.0);
-        match (floor.is_some(), corrected) {
-            (false, false) => {
-                k.sweep_after::<false, false, false>(&mut u, &mut r, omega, fl, ahead)
-            }
-            (true, false) => k.sweep_after::<true, false, false>(&mut u, &mut r, omega, fl, ahead),
-            (false, true) => k.sweep_after::<false, true, false>(&mut u, &mut r, omega, fl, ahead),
-            (true, true) => k.sweep_after::<true, true, false>(&mut u, &mut r, omega, fl, ahead),
-        };
+        k.point_sweep(&mut u, &mut r, omega, floor, corrected, false, ahead);
     }
     fine.u = u;
     fine.r = r;
