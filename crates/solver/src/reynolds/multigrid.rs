@@ -232,8 +232,18 @@ struct Exclusion {
     active: bool,
     mask: Vec<bool>,
     theta: [Vec<f64>; 4],
+    /// The level's diagonal with the boundary corrections (and its reciprocal); equal to the
+    /// plain diagonal except at the nodes listed in `corrected`.
     inv_diag: Vec<f64>,
     diag: Vec<f64>,
+    /// Nodes whose diagonal the current exclusion corrects.
+    corrected: Vec<usize>,
+    /// Whether the operator changed since `inv_diag` and `diag` were last copied from it.
+    stale: bool,
+    /// Scratch of the coarsening: the mask in natural order, and the free nodes of one row
+    /// next to an excluded node.
+    natural: Vec<u8>,
+    near: Vec<u8>,
 }
 
 impl Exclusion {
@@ -244,6 +254,10 @@ impl Exclusion {
             theta: std::array::from_fn(|_| vec![1.0; n]),
             inv_diag: vec![0.0; n],
             diag: vec![0.0; n],
+            corrected: Vec::new(),
+            stale: true,
+            natural: vec![0; n],
+            near: vec![0; n],
         }
     }
 }
@@ -357,6 +371,7 @@ impl Ops {
         self.lay.to_split(&level.cn, &mut self.cn);
         self.lay.to_split(&level.inv_diag, &mut self.id);
         self.lay.to_split(&level.diag, &mut self.d);
+        self.excl.stale = true;
         match lines {
             Smoother::Points => {}
             Smoother::EtaLines => self.factor_eta_lines(),
@@ -856,7 +871,10 @@ impl Multigrid {
             _ => residual(o, false),
         };
         match floor {
-            None => sum.sqrt(),
+            None => {
+                o.excl.active = false;
+                sum.sqrt()
+            }
             Some(fl) => {
                 let lay = o.lay;
                 // Usually no interior node touches the floor (converging films): then the
@@ -866,28 +884,27 @@ impl Multigrid {
                     o.excl.active = false;
                     return sum.sqrt();
                 }
-                let mut s = 0.0;
+                // Cavitated nodes that stay cavitated (at the floor with a residual that would
+                // lower them) take no coarse correction, and their projected residual is zero:
+                // it is set to zero here, so that `r` is the projected residual.
                 let mut any = false;
                 o.excl.mask.fill(false);
                 for j in 1..lay.ny {
                     for (part_even, off) in [(true, 0), (false, lay.he)] {
                         let (m0, m1, _, _) = half_row(&lay, part_even);
                         let range = j * lay.w + off + m0..j * lay.w + off + m1.max(m0);
-                        let (u, r) = (&o.u[range.clone()], &o.r[range.clone()]);
+                        let (u, r) = (&o.u[range.clone()], &mut o.r[range.clone()]);
                         let mask = &mut o.excl.mask[range];
-                        for k in 0..u.len() {
-                            let at_floor = u[k] <= fl;
-                            let v = if at_floor { r[k].max(0.0) } else { r[k] };
-                            s += v * v;
-                            // Cavitated nodes that stay cavitated take no coarse correction.
-                            let a = at_floor && r[k] <= 0.0;
-                            mask[k] = a;
+                        for ((&x, rk), m) in u.iter().zip(r.iter_mut()).zip(mask.iter_mut()) {
+                            let a = (x <= fl) & (*rk <= 0.0);
+                            *m = a;
+                            *rk = if a { 0.0 } else { *rk };
                             any |= a;
                         }
                     }
                 }
                 o.excl.active = any;
-                s.sqrt()
+                sum_sq(&o.r).sqrt()
             }
         }
     }
@@ -938,16 +955,8 @@ impl Multigrid {
         let c = self.cycle;
         let fl = if l == top { floor } else { None };
         let last = self.levels.len() - 1;
-        {
-            let o = &mut self.ops[l];
-            if o.excl.active {
-                for (r, &m) in o.r.iter_mut().zip(&o.excl.mask) {
-                    if m {
-                        *r = 0.0;
-                    }
-                }
-            }
-        }
+        // The residual of excluded nodes is already zero: the top level's is set so by
+        // `smooth_residual_top`, a coarse level's by its corrected kernels.
         {
             let (fo, co) = self.ops.split_at_mut(l + 1);
             let (fine, coarse) = (&fo[l], &mut co[0]);
@@ -959,9 +968,7 @@ impl Multigrid {
             restrict(fine, &fine.r, coarse, &mut self.tmp);
             if coarse.excl.active {
                 for (f, &m) in coarse.f.iter_mut().zip(&coarse.excl.mask) {
-                    if m {
-                        *f = 0.0;
-                    }
+                    *f = if m { 0.0 } else { *f };
                 }
             }
             coarse.u.fill(0.0);
@@ -993,6 +1000,7 @@ impl Multigrid {
 
     /// Pre-smoothing of a coarse level, leaving the residual of the smoothed correction in its
     /// `r` (with zero pre-sweeps, the residual of the current correction).
+    #[inline(never)]
     fn pre_smooth(&mut self, l: usize) {
         let c = self.cycle;
         let o = &mut self.ops[l];
@@ -1012,6 +1020,7 @@ impl Multigrid {
         }
     }
 
+    #[inline(never)]
     fn solve_coarsest(&mut self, floor: Option<f64>, is_top: bool) {
         let last = self.levels.len() - 1;
         let lvl = &self.levels[last];
@@ -1055,6 +1064,7 @@ impl Multigrid {
 
 /// Whether any interior node of the level's iterate is at or below the cavitation floor (only
 /// interior nodes can cavitate; the edges hold the ambient pressure).
+#[inline(never)]
 fn touches_floor(o: &Ops, fl: f64) -> bool {
     let lay = o.lay;
     (1..lay.ny).any(|j| {
@@ -1073,45 +1083,81 @@ fn touches_floor(o: &Ops, fl: f64) -> bool {
 /// distance fraction `θ` to the fine boundary and the conductance of that link scaled by `1/θ`
 /// in its diagonal. `fine_is_top`: the fine level's excluded nodes are exactly one spacing
 /// from their free neighbours (`θ = 1` there).
+#[inline(never)]
 fn coarsen_exclusion(fine: &Ops, fine_is_top: bool, coarse_level: &Level, coarse: &mut Ops) {
     let (fl, cl) = (fine.lay, coarse.lay);
     let ef = &fine.excl;
     let th = |d: usize, k: usize| if fine_is_top { 1.0 } else { ef.theta[d][k] };
     let ec = &mut coarse.excl;
-    ec.mask.fill(false);
-    let mut any = false;
+    // The coarse mask, natural order first: coarse row `jc` is the even half of fine row
+    // `2 jc` (edge nodes are never excluded).
+    let (cw, che, fw) = (cl.w, cl.he, fl.w);
+    let nat = &mut ec.natural;
+    nat[..cw].fill(0);
+    nat[cl.ny * cw..].fill(0);
+    ec.mask[..cw].fill(false);
+    ec.mask[cl.ny * cw..].fill(false);
+    let mut count = 0;
     for jc in 1..cl.ny {
-        for ic in 1..cl.nx {
-            let m = ef.mask[fl.pos(2 * ic, 2 * jc)];
-            ec.mask[cl.pos(ic, jc)] = m;
-            any |= m;
+        let row = &mut nat[jc * cw..(jc + 1) * cw];
+        for (x, &m) in row.iter_mut().zip(&ef.mask[2 * jc * fw..2 * jc * fw + cw]) {
+            *x = u8::from(m);
+        }
+        count += row.iter().map(|&x| usize::from(x)).sum::<usize>();
+        let (even, odd) = ec.mask[jc * cw..(jc + 1) * cw].split_at_mut(che);
+        for (m, x) in even.iter_mut().enumerate() {
+            *x = row[2 * m] != 0;
+        }
+        for (m, x) in odd.iter_mut().enumerate() {
+            *x = row[2 * m + 1] != 0;
         }
     }
+    let any = count > 0;
     ec.active = any;
-    ec.inv_diag.copy_from_slice(&coarse.id);
-    ec.diag.copy_from_slice(&coarse.d);
+    // Start from the plain diagonal: copy it after a new assembly, otherwise undo the
+    // corrections of the last exclusion.
+    if ec.stale {
+        ec.inv_diag.copy_from_slice(&coarse.id);
+        ec.diag.copy_from_slice(&coarse.d);
+        ec.stale = false;
+    } else {
+        for &k in &ec.corrected {
+            ec.inv_diag[k] = coarse.id[k];
+            ec.diag[k] = coarse.d[k];
+        }
+    }
+    ec.corrected.clear();
     if !any {
         return;
     }
     let wc = cl.w;
     // Directions: 0 east (+i), 1 west (−i), 2 north (+j), 3 south (−j).
+    const STEPS: [(isize, isize); 4] = [(1, 0), (-1, 0), (0, 1), (0, -1)];
+    let nat = &ec.natural;
+    let near = &mut ec.near;
     for jc in 1..cl.ny {
-        for ic in 1..cl.nx {
+        // Free nodes with an excluded neighbour (flagged without branches, then visited).
+        let k0 = jc * cw;
+        let (below, rest) = nat[k0 - cw..k0 + 2 * cw].split_at(cw);
+        let (here, above) = rest.split_at(cw);
+        let nr = &mut near[..cw];
+        for ic in 1..cw - 1 {
+            nr[ic] = (1 - here[ic]) & (here[ic - 1] | here[ic + 1] | above[ic] | below[ic]);
+        }
+        for ic in (1..cl.nx).filter(|&ic| near[ic] != 0) {
             let kc = cl.pos(ic, jc);
-            if ec.mask[kc] {
-                continue;
-            }
             let (i, j) = (2 * ic, 2 * jc);
             let kf = fl.pos(i, j);
-            let mut diag = 1.0 / coarse.id[kc];
-            let mut touched = false;
-            for d in 0..4 {
-                let (di, dj): (isize, isize) = match d {
-                    0 => (1, 0),
-                    1 => (-1, 0),
-                    2 => (0, 1),
-                    _ => (0, -1),
-                };
+            // The corrected diagonal, formed at the first corrected link (most free nodes
+            // have none, and the reciprocal is the costly part).
+            let mut diag: Option<f64> = None;
+            for (d, &(di, dj)) in STEPS.iter().enumerate() {
+                let c1 = ((jc as isize + dj) as usize) * cw + (ic as isize + di) as usize;
+                if nat[c1] == 0 {
+                    // No excluded coarse neighbour this way (or a thin excluded strip between
+                    // two free coarse nodes, whose link stays).
+                    continue;
+                }
                 let at = |s: isize| {
                     fl.pos(
                         (i as isize + s * di) as usize,
@@ -1119,7 +1165,6 @@ fn coarsen_exclusion(fine: &Ops, fine_is_top: bool, coarse_level: &Level, coarse
                     )
                 };
                 let (f1, f2) = (at(1), at(2));
-                let c1 = cl.pos((ic as isize + di) as usize, (jc as isize + dj) as usize);
                 let theta = if ef.mask[f1] {
                     0.5 * th(d, kf)
                 } else if ef.mask[f2] {
@@ -1127,10 +1172,6 @@ fn coarsen_exclusion(fine: &Ops, fine_is_top: bool, coarse_level: &Level, coarse
                 } else {
                     continue;
                 };
-                if !ec.mask[c1] {
-                    // A thin excluded strip between two free coarse nodes: leave the link.
-                    continue;
-                }
                 ec.theta[d][kc] = theta;
                 // The conductance of the link in natural coarse indexing.
                 let kn = jc * wc + ic;
@@ -1140,12 +1181,13 @@ fn coarsen_exclusion(fine: &Ops, fine_is_top: bool, coarse_level: &Level, coarse
                     2 => coarse_level.cn[kn],
                     _ => coarse_level.cn[kn - wc],
                 };
-                diag += g * (1.0 / theta - 1.0);
-                touched = true;
+                let base = diag.unwrap_or_else(|| 1.0 / coarse.id[kc]);
+                diag = Some(base + g * (1.0 / theta - 1.0));
             }
-            if touched {
+            if let Some(diag) = diag {
                 ec.inv_diag[kc] = 1.0 / diag;
                 ec.diag[kc] = diag;
+                ec.corrected.push(kc);
             }
         }
     }
