@@ -7,6 +7,7 @@
 
 pub mod banded;
 pub mod multigrid;
+pub mod real;
 pub mod stencil;
 
 use crate::error::SolverError;

@@ -32,6 +32,7 @@
 //!   interpolation of each coarse solution.
 
 use super::banded::BandedCholesky;
+use super::real::Real;
 use super::stencil::Level;
 
 /// Smallest number of intervals per direction of a coarse level.
@@ -198,28 +199,30 @@ impl Layout {
         self.w * (self.ny + 1)
     }
 
-    fn to_split(self, natural: &[f64], split: &mut [f64]) {
+    /// Copies `natural` (natural order) into `split` (split layout), converting the values.
+    fn to_split<S: Real, T: Real>(self, natural: &[S], split: &mut [T]) {
         let (w, he) = (self.w, self.he);
         for (nat, sp) in natural.chunks_exact(w).zip(split.chunks_exact_mut(w)) {
             let (even, odd) = sp.split_at_mut(he);
             for (m, x) in even.iter_mut().enumerate() {
-                *x = nat[2 * m];
+                *x = T::of(nat[2 * m].f64());
             }
             for (m, x) in odd.iter_mut().enumerate() {
-                *x = nat[2 * m + 1];
+                *x = T::of(nat[2 * m + 1].f64());
             }
         }
     }
 
-    fn to_natural(self, split: &[f64], natural: &mut [f64]) {
+    /// Copies `split` (split layout) into `natural` (natural order), converting the values.
+    fn to_natural<S: Real, T: Real>(self, split: &[S], natural: &mut [T]) {
         let (w, he) = (self.w, self.he);
         for (sp, nat) in split.chunks_exact(w).zip(natural.chunks_exact_mut(w)) {
             let (even, odd) = sp.split_at(he);
             for (m, &x) in even.iter().enumerate() {
-                nat[2 * m] = x;
+                nat[2 * m] = T::of(x.f64());
             }
             for (m, &x) in odd.iter().enumerate() {
-                nat[2 * m + 1] = x;
+                nat[2 * m + 1] = T::of(x.f64());
             }
         }
     }
@@ -228,14 +231,14 @@ impl Layout {
 /// Nodes of one level excluded from the coarse correction, with the distance fractions to the
 /// excluded region of the free nodes next to it (east, west, north, south). Split layout.
 #[derive(Clone, Debug, Default)]
-struct Exclusion {
+struct Exclusion<T: Real> {
     active: bool,
     mask: Vec<bool>,
     theta: [Vec<f64>; 4],
     /// The level's diagonal with the boundary corrections (and its reciprocal); equal to the
     /// plain diagonal except at the nodes listed in `corrected`.
-    inv_diag: Vec<f64>,
-    diag: Vec<f64>,
+    inv_diag: Vec<T>,
+    diag: Vec<T>,
     /// Nodes whose diagonal the current exclusion corrects.
     corrected: Vec<usize>,
     /// Whether the operator changed since `inv_diag` and `diag` were last copied from it.
@@ -246,14 +249,14 @@ struct Exclusion {
     near: Vec<u8>,
 }
 
-impl Exclusion {
+impl<T: Real> Exclusion<T> {
     fn new(n: usize) -> Self {
         Exclusion {
             active: false,
             mask: vec![false; n],
             theta: std::array::from_fn(|_| vec![1.0; n]),
-            inv_diag: vec![0.0; n],
-            diag: vec![0.0; n],
+            inv_diag: vec![T::ZERO; n],
+            diag: vec![T::ZERO; n],
             corrected: Vec::new(),
             stale: true,
             natural: vec![0; n],
@@ -265,41 +268,41 @@ impl Exclusion {
 /// The operator and vectors of one level in split layout, plus the interpolation weights to
 /// the next coarser level.
 #[derive(Clone, Debug)]
-struct Ops {
+struct Ops<T: Real> {
     lay: Layout,
-    ce: Vec<f64>,
-    cn: Vec<f64>,
-    id: Vec<f64>,
-    d: Vec<f64>,
-    u: Vec<f64>,
-    f: Vec<f64>,
-    r: Vec<f64>,
-    excl: Exclusion,
+    ce: Vec<T>,
+    cn: Vec<T>,
+    id: Vec<T>,
+    d: Vec<T>,
+    u: Vec<T>,
+    f: Vec<T>,
+    r: Vec<T>,
+    excl: Exclusion<T>,
     /// Factors of the tridiagonal systems along η (one per column, the five-point operator with
     /// its east and west neighbours held): forward multipliers `g_j = c_n(j − 1)/β_{j − 1}` and
     /// inverse pivots `1/β_j`, split layout.
-    line_g: Vec<f64>,
-    line_ib: Vec<f64>,
+    line_g: Vec<T>,
+    line_ib: Vec<T>,
     /// For odd column `i = 2m + 1`: weight of coarse node `m` (left) and `m + 1` (right).
-    wl: Vec<f64>,
-    wr: Vec<f64>,
+    wl: Vec<T>,
+    wr: Vec<T>,
     /// For odd row `j`: weight of coarse row `(j − 1)/2` (below) and `(j + 1)/2` (above).
-    wyl: Vec<f64>,
-    wyr: Vec<f64>,
+    wyl: Vec<T>,
+    wyr: Vec<T>,
 }
 
-impl Ops {
+impl<T: Real> Ops<T> {
     fn new(level: &Level) -> Self {
         let lay = Layout::new(level.grid.nx, level.grid.ny);
         let n = lay.len();
         let weights = |x: &[f64]| {
             let nn = x.len() - 1;
-            let mut l = vec![0.0; nn + 1];
-            let mut r = vec![0.0; nn + 1];
+            let mut l = vec![T::ZERO; nn + 1];
+            let mut r = vec![T::ZERO; nn + 1];
             for i in (1..nn).step_by(2) {
                 let d = x[i + 1] - x[i - 1];
-                l[i] = (x[i + 1] - x[i]) / d;
-                r[i] = (x[i] - x[i - 1]) / d;
+                l[i] = T::of((x[i + 1] - x[i]) / d);
+                r[i] = T::of((x[i] - x[i - 1]) / d);
             }
             (l, r)
         };
@@ -310,16 +313,16 @@ impl Ops {
         let wr = (0..ho).map(|m| xr[2 * m + 1]).collect();
         Ops {
             lay,
-            ce: vec![0.0; n],
-            cn: vec![0.0; n],
-            id: vec![0.0; n],
-            d: vec![0.0; n],
-            u: vec![0.0; n],
-            f: vec![0.0; n],
-            r: vec![0.0; n],
+            ce: vec![T::ZERO; n],
+            cn: vec![T::ZERO; n],
+            id: vec![T::ZERO; n],
+            d: vec![T::ZERO; n],
+            u: vec![T::ZERO; n],
+            f: vec![T::ZERO; n],
+            r: vec![T::ZERO; n],
             excl: Exclusion::new(n),
-            line_g: vec![0.0; n],
-            line_ib: vec![0.0; n],
+            line_g: vec![T::ZERO; n],
+            line_ib: vec![T::ZERO; n],
             wl,
             wr,
             wyl,
@@ -329,7 +332,7 @@ impl Ops {
 
     /// The read-only operator data of the level as a [`Kernel`] (with the boundary-corrected
     /// diagonal and the exclusion mask if `corrected`), and its iterate and residual.
-    fn parts(&mut self, corrected: bool) -> (Kernel<'_>, &mut [f64], &mut [f64]) {
+    fn parts(&mut self, corrected: bool) -> (Kernel<'_, T>, &mut [T], &mut [T]) {
         let Ops {
             lay,
             ce,
@@ -349,7 +352,7 @@ impl Ops {
     }
 
     /// The read-only operator data of the level as a [`Kernel`], as in [`Ops::parts`].
-    fn kernel(&self, corrected: bool) -> Kernel<'_> {
+    fn kernel(&self, corrected: bool) -> Kernel<'_, T> {
         Kernel::new(
             self.lay,
             &self.ce,
@@ -391,14 +394,14 @@ impl Ops {
             for i in 1..lay.nx {
                 let k = row + lay.pos(i, 0);
                 if i == 1 {
-                    self.line_g[k] = 0.0;
-                    self.line_ib[k] = 1.0 / self.d[k];
+                    self.line_g[k] = T::ZERO;
+                    self.line_ib[k] = T::ONE / self.d[k];
                 } else {
                     let km = row + lay.pos(i - 1, 0);
                     let c = self.ce[km];
                     let g = c * self.line_ib[km];
                     self.line_g[k] = g;
-                    self.line_ib[k] = 1.0 / (self.d[k] - c * g);
+                    self.line_ib[k] = T::ONE / (self.d[k] - c * g);
                 }
             }
         }
@@ -415,13 +418,13 @@ impl Ops {
             let row = j * w;
             for k in row..row + w {
                 if j == 1 {
-                    self.line_g[k] = 0.0;
-                    self.line_ib[k] = 1.0 / self.d[k];
+                    self.line_g[k] = T::ZERO;
+                    self.line_ib[k] = T::ONE / self.d[k];
                 } else {
                     let c = self.cn[k - w];
                     let g = c * self.line_ib[k - w];
                     self.line_g[k] = g;
-                    self.line_ib[k] = 1.0 / (self.d[k] - c * g);
+                    self.line_ib[k] = T::ONE / (self.d[k] - c * g);
                 }
             }
         }
@@ -481,22 +484,14 @@ pub struct Outcome {
 pub struct Multigrid {
     /// Grid levels, finest first (natural layout, used for assembly).
     pub levels: Vec<Level>,
-    ops: Vec<Ops>,
-    tmp: Vec<f64>,
-    row: Vec<f64>,
-    coarse: BandedCholesky,
-    coarse_masked: BandedCholesky,
-    nat_a: Vec<f64>,
-    nat_b: Vec<f64>,
+    /// The levels' operators and vectors in full precision.
+    h: Hierarchy<f64>,
     /// Fine right-hand side in natural layout, m³/s.
     rhs: Vec<f64>,
     /// Fine solution in natural layout, Pa.
     solution: Vec<f64>,
     /// Cycle parameters.
     pub cycle: CycleSettings,
-    /// How the unconstrained levels are smoothed (decided at assembly).
-    use_lines: Smoother,
-    /// The solution before the current one (finest level, split layout), for warm starts.
     /// The solutions before the current one, newest first (finest level, split layout), for
     /// warm starts; the first `history_len` are valid.
     history: [Vec<f64>; HISTORY],
@@ -529,21 +524,12 @@ impl Multigrid {
         {
             levels.push(make_level(g));
         }
-        let ops: Vec<Ops> = levels.iter().map(Ops::new).collect();
         let n = levels[0].grid.len();
-        let coarsest = levels.last().unwrap().grid.len();
         Multigrid {
-            ops,
-            tmp: vec![0.0; n],
-            row: vec![0.0; n],
-            coarse: BandedCholesky::default(),
-            coarse_masked: BandedCholesky::default(),
-            nat_a: vec![0.0; coarsest],
-            nat_b: vec![0.0; coarsest],
+            h: Hierarchy::new(&levels),
             rhs: vec![0.0; n],
             solution: vec![0.0; n],
             cycle: CycleSettings::default(),
-            use_lines: Smoother::Points,
             history: std::array::from_fn(|_| vec![0.0; n]),
             history_len: 0,
             history_residual: std::array::from_fn(|_| vec![0.0; n]),
@@ -587,15 +573,12 @@ impl Multigrid {
                 hmin = h;
             }
         }
-        self.use_lines = if self.cycle.lines {
+        let lines = if self.cycle.lines {
             smoother_for(&self.levels[0])
         } else {
             Smoother::Points
         };
-        for (l, o) in self.levels.iter().zip(&mut self.ops) {
-            o.load(l, self.use_lines);
-        }
-        self.coarse.factor(self.levels.last().unwrap());
+        self.h.load(&self.levels, lines);
         hmin
     }
 
@@ -623,7 +606,7 @@ impl Multigrid {
     /// Sets the finest-level solution (natural layout) as the start of the next solve.
     pub fn set_solution(&mut self, p: &[f64]) {
         self.solution.copy_from_slice(p);
-        let o = &mut self.ops[0];
+        let o = &mut self.h.ops[0];
         if self.current_valid {
             self.history.rotate_right(1);
             self.history[0].copy_from_slice(&o.u);
@@ -661,25 +644,26 @@ impl Multigrid {
         cold: bool,
     ) -> Outcome {
         let bnorm = self.rhs_norm();
+        self.h.cycle = self.cycle;
         {
-            let o = &mut self.ops[0];
+            let o = &mut self.h.ops[0];
             o.lay.to_split(&self.rhs, &mut o.f);
         }
         // The start (the last solution) becomes the previous solution of the next solve.
         let start_valid = self.current_valid;
         if start_valid {
-            self.spare.copy_from_slice(&self.ops[0].u);
+            self.spare.copy_from_slice(&self.h.ops[0].u);
         }
         let mut residual_known = false;
         // Whether the iterate just came out of full multigrid (its residual is measured by a
         // pre-smoothing pass, as after any cycle).
         let mut from_fmg = cold;
         if cold {
-            self.ops[0].u.fill(0.0);
-            self.full_multigrid(floor);
+            self.h.ops[0].u.fill(0.0);
+            self.h.full_multigrid(&self.levels, floor);
         } else {
             residual_known = self.project_start(floor);
-            let o = &self.ops[0];
+            let o = &self.h.ops[0];
             let far = sum_sq(&o.r).sqrt() > CORRECTION_BY_FMG_ABOVE * tolerance * bnorm;
             let free = floor.is_none_or(|fl| !touches_floor(o, fl));
             if residual_known && far && free {
@@ -700,7 +684,7 @@ impl Multigrid {
             } else {
                 TopPass::Residual
             };
-            let rel = self.smooth_residual_top(0, floor, pass) / bnorm;
+            let rel = self.h.smooth_residual_top(0, floor, pass) / bnorm;
             if rel <= tolerance || cycles >= max_cycles || !rel.is_finite() {
                 break Outcome {
                     cycles,
@@ -708,10 +692,10 @@ impl Multigrid {
                     converged: rel <= tolerance,
                 };
             }
-            self.cycle_from_residual(0, floor);
+            self.h.cycle_from_residual(&self.levels, 0, floor);
             cycles += 1;
         };
-        let o = &self.ops[0];
+        let o = &self.h.ops[0];
         o.lay.to_natural(&o.u, &mut self.solution);
         if start_valid {
             self.history.rotate_right(1);
@@ -738,7 +722,7 @@ impl Multigrid {
     /// the combination).
     fn project_start(&mut self, floor: Option<f64>) -> bool {
         let m = 1 + self.history_len;
-        let o = &mut self.ops[0];
+        let o = &mut self.h.ops[0];
         residual(o, false);
         let (k, _, _) = o.parts(false);
         for q in 0..self.history_len {
@@ -841,32 +825,78 @@ impl Multigrid {
     /// Only for starts that do not touch the cavitation floor: the correction is computed
     /// without it, and the sum is clipped at the floor (the cycles that follow are projected).
     fn full_multigrid_correction(&mut self, floor: Option<f64>) {
-        let o = &mut self.ops[0];
+        let o = &mut self.h.ops[0];
         std::mem::swap(&mut o.u, &mut self.correction_base);
         std::mem::swap(&mut o.f, &mut self.rhs_saved);
         o.f.copy_from_slice(&o.r);
         o.u.fill(0.0);
-        self.full_multigrid(None);
-        let o = &mut self.ops[0];
+        self.h.full_multigrid(&self.levels, None);
+        let o = &mut self.h.ops[0];
         std::mem::swap(&mut o.f, &mut self.rhs_saved);
         for (x, &b) in o.u.iter_mut().zip(&self.correction_base) {
             *x += b;
         }
         if let Some(fl) = floor {
-            o.u.iter_mut().for_each(|x| *x = x.max(fl));
+            o.u.iter_mut().for_each(|x| *x = x.max_of(fl));
         }
+    }
+}
+
+/// The operators and vectors of all levels in one working precision `T`, with the scratch of
+/// a cycle: the part of the workspace that full multigrid and the cycles run on.
+#[derive(Clone, Debug)]
+struct Hierarchy<T: Real> {
+    ops: Vec<Ops<T>>,
+    tmp: Vec<T>,
+    row: Vec<T>,
+    coarse: BandedCholesky,
+    coarse_masked: BandedCholesky,
+    nat_a: Vec<f64>,
+    nat_b: Vec<f64>,
+    /// Cycle parameters (copied from the workspace's at each solve).
+    cycle: CycleSettings,
+    /// How the unconstrained levels are smoothed (decided at assembly).
+    use_lines: Smoother,
+}
+
+impl<T: Real> Hierarchy<T> {
+    fn new(levels: &[Level]) -> Self {
+        let n = levels[0].grid.len();
+        let coarsest = levels.last().unwrap().grid.len();
+        Hierarchy {
+            ops: levels.iter().map(Ops::new).collect(),
+            tmp: vec![T::ZERO; n],
+            row: vec![T::ZERO; n],
+            coarse: BandedCholesky::default(),
+            coarse_masked: BandedCholesky::default(),
+            nat_a: vec![0.0; coarsest],
+            nat_b: vec![0.0; coarsest],
+            cycle: CycleSettings::default(),
+            use_lines: Smoother::Points,
+        }
+    }
+
+    /// Copies the assembled operators of `levels` (in their split layout and precision) and
+    /// factorises the coarsest level.
+    fn load(&mut self, levels: &[Level], lines: Smoother) {
+        self.use_lines = lines;
+        for (l, o) in levels.iter().zip(&mut self.ops) {
+            o.load(l, lines);
+        }
+        self.coarse.factor(levels.last().unwrap());
     }
 
     /// Pre-smooths the top level `l` (projected if `floor`) and leaves the residual of the
     /// smoothed iterate in its `r`, with the exclusion of cavitated nodes if projected;
     /// returns the norm of the (projected) residual. See [`TopPass`] for the other passes.
-    fn smooth_residual_top(&mut self, l: usize, floor: Option<f64>, pass: TopPass) -> f64 {
+    fn smooth_residual_top(&mut self, l: usize, floor: Option<T>, pass: TopPass) -> f64 {
         let c = self.cycle;
         let o = &mut self.ops[l];
+        let omega = T::of(c.omega);
         let sum = match pass {
             TopPass::Known => sum_sq(&o.r),
             TopPass::Smooth if c.pre_sweeps > 0 => {
-                smooth(o, c.pre_sweeps, floor, c.omega, false, true, self.use_lines)
+                smooth(o, c.pre_sweeps, floor, omega, false, true, self.use_lines)
             }
             _ => residual(o, false),
         };
@@ -896,9 +926,9 @@ impl Multigrid {
                         let (u, r) = (&o.u[range.clone()], &mut o.r[range.clone()]);
                         let mask = &mut o.excl.mask[range];
                         for ((&x, rk), m) in u.iter().zip(r.iter_mut()).zip(mask.iter_mut()) {
-                            let a = (x <= fl) & (*rk <= 0.0);
+                            let a = (x <= fl) & (*rk <= T::ZERO);
                             *m = a;
-                            *rk = if a { 0.0 } else { *rk };
+                            *rk = if a { T::ZERO } else { *rk };
                             any |= a;
                         }
                     }
@@ -911,8 +941,8 @@ impl Multigrid {
 
     /// Full multigrid from a zero start: restricts the right-hand side to all levels, solves
     /// the coarsest and works up with one cycle per level.
-    fn full_multigrid(&mut self, floor: Option<f64>) {
-        let last = self.levels.len() - 1;
+    fn full_multigrid(&mut self, levels: &[Level], floor: Option<T>) {
+        let last = levels.len() - 1;
         for l in 0..last {
             let (fo, co) = self.ops.split_at_mut(l + 1);
             restrict(&fo[l], &fo[l].f, &mut co[0], &mut self.tmp);
@@ -920,65 +950,66 @@ impl Multigrid {
         for o in &mut self.ops {
             o.excl.active = false;
         }
-        self.ops[last].u.fill(0.0);
-        self.solve_coarsest(floor, true);
+        self.ops[last].u.fill(T::ZERO);
+        self.solve_coarsest(levels, floor, true);
         for l in (0..last).rev() {
             {
                 let (fo, co) = self.ops.split_at_mut(l + 1);
-                let (xi, eta) = (&self.levels[l].grid.xi, &self.levels[l].grid.eta);
+                let (xi, eta) = (&levels[l].grid.xi, &levels[l].grid.eta);
                 interpolate_cubic(&mut fo[l], xi, eta, &co[0].u, &mut self.row);
             }
             if let Some(fl) = floor {
-                self.ops[l].u.iter_mut().for_each(|x| *x = x.max(fl));
+                self.ops[l].u.iter_mut().for_each(|x| *x = x.max_of(fl));
             }
             self.smooth_residual_top(l, floor, TopPass::Smooth);
-            self.cycle_from_residual(l, floor);
+            self.cycle_from_residual(levels, l, floor);
         }
     }
 
     /// Completes a cycle on top level `top` whose residual (and, if projected, exclusion) has
-    /// just been computed by [`Multigrid::smooth_residual_top`].
-    fn cycle_from_residual(&mut self, top: usize, floor: Option<f64>) {
+    /// just been computed by [`Hierarchy::smooth_residual_top`].
+    fn cycle_from_residual(&mut self, levels: &[Level], top: usize, floor: Option<T>) {
         for o in &mut self.ops[top + 1..] {
             o.excl.active = false;
         }
-        if top == self.levels.len() - 1 {
-            self.solve_coarsest(floor, true);
+        if top == levels.len() - 1 {
+            self.solve_coarsest(levels, floor, true);
             return;
         }
-        self.correct(top, top, floor);
+        self.correct(levels, top, top, floor);
     }
 
     /// Restricts the residual of `l` (already computed), corrects from the coarser levels and
     /// post-smooths.
-    fn correct(&mut self, l: usize, top: usize, floor: Option<f64>) {
+    fn correct(&mut self, levels: &[Level], l: usize, top: usize, floor: Option<T>) {
         let c = self.cycle;
+        let omega = T::of(c.omega);
         let fl = if l == top { floor } else { None };
-        let last = self.levels.len() - 1;
+        let last = levels.len() - 1;
         // The residual of excluded nodes is already zero: the top level's is set so by
         // `smooth_residual_top`, a coarse level's by its corrected kernels.
         {
             let (fo, co) = self.ops.split_at_mut(l + 1);
             let (fine, coarse) = (&fo[l], &mut co[0]);
             if fine.excl.active {
-                coarsen_exclusion(fine, l == top, &self.levels[l + 1], coarse);
+                coarsen_exclusion(fine, l == top, &levels[l + 1], coarse);
             } else {
                 coarse.excl.active = false;
             }
             restrict(fine, &fine.r, coarse, &mut self.tmp);
             if coarse.excl.active {
                 for (f, &m) in coarse.f.iter_mut().zip(&coarse.excl.mask) {
-                    *f = if m { 0.0 } else { *f };
+                    *f = if m { T::ZERO } else { *f };
                 }
             }
-            coarse.u.fill(0.0);
+            coarse.u.fill(T::ZERO);
         }
         for _ in 0..c.gamma.max(1) {
             if l + 1 == last {
-                self.solve_coarsest(None, false);
+                self.solve_coarsest(levels, None, false);
             } else {
                 self.pre_smooth(l + 1);
-                self.correct(l + 1, top, floor);
+                self.correct(levels, l + 1, top, floor);
             }
         }
         let (fo, co) = self.ops.split_at_mut(l + 1);
@@ -992,7 +1023,7 @@ impl Multigrid {
             &mut self.row,
             c.post_sweeps,
             fl,
-            c.omega,
+            omega,
             corrected,
             self.use_lines,
         );
@@ -1012,7 +1043,7 @@ impl Multigrid {
                 o,
                 c.pre_sweeps,
                 None,
-                c.omega,
+                T::of(c.omega),
                 corrected,
                 true,
                 self.use_lines,
@@ -1020,10 +1051,13 @@ impl Multigrid {
         }
     }
 
+    /// Solves the coarsest level exactly (banded Cholesky in `f64`); projected on the floor
+    /// if the coarsest level is the top level of a projected solve, with its excluded nodes
+    /// held if it has an exclusion.
     #[inline(never)]
-    fn solve_coarsest(&mut self, floor: Option<f64>, is_top: bool) {
-        let last = self.levels.len() - 1;
-        let lvl = &self.levels[last];
+    fn solve_coarsest(&mut self, levels: &[Level], floor: Option<T>, is_top: bool) {
+        let last = levels.len() - 1;
+        let lvl = &levels[last];
         let o = &mut self.ops[last];
         let lay = o.lay;
         lay.to_natural(&o.f, &mut self.nat_b);
@@ -1031,13 +1065,13 @@ impl Multigrid {
             Some(fl) if is_top => {
                 // Full solution with the cavitation constraint: exact linear solve, clamp,
                 // then projected sweeps (the coarsest level is small).
-                if o.u.iter().all(|&x| x == 0.0) {
+                if o.u.iter().all(|&x| x == T::ZERO) {
                     self.coarse.solve(lvl, &self.nat_b, &mut self.nat_a);
                     lay.to_split(&self.nat_a, &mut o.u);
-                    o.u.iter_mut().for_each(|x| *x = x.max(fl));
+                    o.u.iter_mut().for_each(|x| *x = x.max_of(fl));
                 }
                 let sweeps = 4 * (lay.nx + lay.ny);
-                smooth(o, sweeps, Some(fl), 1.0, false, false, Smoother::Points);
+                smooth(o, sweeps, Some(fl), T::ONE, false, false, Smoother::Points);
             }
             _ if o.excl.active => {
                 // Masked solve: rows of excluded nodes become identities.
@@ -1047,7 +1081,7 @@ impl Multigrid {
                     for i in 0..=lay.nx {
                         let k = lay.pos(i, j);
                         mask[j * lay.w + i] = o.excl.mask[k];
-                        idn[j * lay.w + i] = o.excl.inv_diag[k];
+                        idn[j * lay.w + i] = o.excl.inv_diag[k].f64();
                     }
                 }
                 self.coarse_masked.factor_masked(lvl, Some(&mask), &idn);
@@ -1065,7 +1099,7 @@ impl Multigrid {
 /// Whether any interior node of the level's iterate is at or below the cavitation floor (only
 /// interior nodes can cavitate; the edges hold the ambient pressure).
 #[inline(never)]
-fn touches_floor(o: &Ops, fl: f64) -> bool {
+fn touches_floor<T: Real>(o: &Ops<T>, fl: T) -> bool {
     let lay = o.lay;
     (1..lay.ny).any(|j| {
         [(true, 0), (false, lay.he)]
@@ -1084,7 +1118,12 @@ fn touches_floor(o: &Ops, fl: f64) -> bool {
 /// in its diagonal. `fine_is_top`: the fine level's excluded nodes are exactly one spacing
 /// from their free neighbours (`θ = 1` there).
 #[inline(never)]
-fn coarsen_exclusion(fine: &Ops, fine_is_top: bool, coarse_level: &Level, coarse: &mut Ops) {
+fn coarsen_exclusion<T: Real>(
+    fine: &Ops<T>,
+    fine_is_top: bool,
+    coarse_level: &Level,
+    coarse: &mut Ops<T>,
+) {
     let (fl, cl) = (fine.lay, coarse.lay);
     let ef = &fine.excl;
     let th = |d: usize, k: usize| if fine_is_top { 1.0 } else { ef.theta[d][k] };
@@ -1181,12 +1220,12 @@ fn coarsen_exclusion(fine: &Ops, fine_is_top: bool, coarse_level: &Level, coarse
                     2 => coarse_level.cn[kn],
                     _ => coarse_level.cn[kn - wc],
                 };
-                let base = diag.unwrap_or_else(|| 1.0 / coarse.id[kc]);
+                let base = diag.unwrap_or_else(|| 1.0 / coarse.id[kc].f64());
                 diag = Some(base + g * (1.0 / theta - 1.0));
             }
             if let Some(diag) = diag {
-                ec.inv_diag[kc] = 1.0 / diag;
-                ec.diag[kc] = diag;
+                ec.inv_diag[kc] = T::of(1.0 / diag);
+                ec.diag[kc] = T::of(diag);
                 ec.corrected.push(kc);
             }
         }
@@ -1217,11 +1256,11 @@ fn half_row(lay: &Layout, part_even: bool) -> (usize, usize, usize, usize) {
 /// iterate in the level's `r` (zero on the edges and, if `corrected`, on excluded nodes) and
 /// returns `Σ r²`; otherwise it returns zero. See [`Kernel::sweep`] for how the two colours and
 /// the residual share one pass over memory.
-fn smooth(
-    o: &mut Ops,
+fn smooth<T: Real>(
+    o: &mut Ops<T>,
     sweeps: usize,
-    floor: Option<f64>,
-    omega: f64,
+    floor: Option<T>,
+    omega: T,
     corrected: bool,
     with_residual: bool,
     lines: Smoother,
@@ -1235,8 +1274,8 @@ fn smooth(
             sum = match (lines, res) {
                 (Smoother::XiLines, true) => k.xi_line_sweep::<true>(u, r),
                 (Smoother::XiLines, false) => k.xi_line_sweep::<false>(u, r),
-                (_, true) => k.line_sweep::<true>(u, r, 1.0),
-                (_, false) => k.line_sweep::<false>(u, r, 1.0),
+                (_, true) => k.line_sweep::<true>(u, r, T::ONE),
+                (_, false) => k.line_sweep::<false>(u, r, T::ONE),
             };
         }
         return sum;
@@ -1250,16 +1289,16 @@ fn smooth(
 }
 
 /// The read-only data of a sweep or residual over one level.
-struct Kernel<'a> {
+struct Kernel<'a, T: Real> {
     lay: Layout,
-    ce: &'a [f64],
-    cn: &'a [f64],
-    id: &'a [f64],
-    d: &'a [f64],
-    f: &'a [f64],
+    ce: &'a [T],
+    cn: &'a [T],
+    id: &'a [T],
+    d: &'a [T],
+    f: &'a [T],
     mask: &'a [bool],
-    line_g: &'a [f64],
-    line_ib: &'a [f64],
+    line_g: &'a [T],
+    line_ib: &'a [T],
 }
 
 /// Offsets of one half-row of row `j` in split layout: the start of its own entries (`s`), of
@@ -1289,22 +1328,22 @@ impl HalfRow {
     }
 }
 
-impl<'a> Kernel<'a> {
+impl<'a, T: Real> Kernel<'a, T> {
     /// [`Kernel::sweep`] with its variant chosen at run time: projected on `floor` if given,
     /// with the level's exclusion if `corrected`, producing the residual if `res`.
     #[allow(clippy::too_many_arguments)]
     #[inline(always)]
     fn point_sweep(
         &self,
-        u: &mut [f64],
-        r: &mut [f64],
-        omega: f64,
-        floor: Option<f64>,
+        u: &mut [T],
+        r: &mut [T],
+        omega: T,
+        floor: Option<T>,
         corrected: bool,
         res: bool,
-        ahead: impl FnMut(&mut [f64], usize),
+        ahead: impl FnMut(&mut [T], usize),
     ) -> f64 {
-        let fl = floor.unwrap_or(0.0);
+        let fl = floor.unwrap_or(T::ZERO);
         match (floor.is_some(), corrected, res) {
             (false, false, false) => self.sweep::<false, false, false>(u, r, omega, fl, ahead),
             (true, false, false) => self.sweep::<true, false, false>(u, r, omega, fl, ahead),
@@ -1322,17 +1361,17 @@ impl<'a> Kernel<'a> {
     #[allow(clippy::too_many_arguments)]
     fn new(
         lay: Layout,
-        ce: &'a [f64],
-        cn: &'a [f64],
-        id: &'a [f64],
-        d: &'a [f64],
-        f: &'a [f64],
-        excl: &'a Exclusion,
-        line_g: &'a [f64],
-        line_ib: &'a [f64],
+        ce: &'a [T],
+        cn: &'a [T],
+        id: &'a [T],
+        d: &'a [T],
+        f: &'a [T],
+        excl: &'a Exclusion<T>,
+        line_g: &'a [T],
+        line_ib: &'a [T],
         corrected: bool,
     ) -> Self {
-        let (id, d, mask): (&[f64], &[f64], &[bool]) = if corrected {
+        let (id, d, mask): (&[T], &[T], &[bool]) = if corrected {
             (&excl.inv_diag, &excl.diag, &excl.mask)
         } else {
             (id, d, &[])
@@ -1361,7 +1400,7 @@ impl<'a> Kernel<'a> {
     /// With `RES` the residual of the new iterate is left in `r` and `Σ r²` returned; for
     /// `omega = 1` the odd columns' residual is zero by construction (their line equations
     /// hold with the final even columns) and only the even half is evaluated.
-    fn line_sweep<const RES: bool>(&self, u: &mut [f64], r: &mut [f64], omega: f64) -> f64 {
+    fn line_sweep<const RES: bool>(&self, u: &mut [T], r: &mut [T], omega: T) -> f64 {
         let lay = self.lay;
         let (w, ny) = (lay.w, lay.ny);
         for part_even in [true, false] {
@@ -1426,8 +1465,8 @@ impl<'a> Kernel<'a> {
         if !RES {
             return 0.0;
         }
-        if omega == 1.0 {
-            r.fill(0.0);
+        if omega == T::ONE {
+            r.fill(T::ZERO);
             let mut sum = 0.0;
             for j in 1..ny {
                 sum += self.residual_half::<false>(u, r, j, true);
@@ -1448,7 +1487,7 @@ impl<'a> Kernel<'a> {
     /// With `RES` the residual of the new iterate is left in `r` and `Σ r²` returned; the odd
     /// rows' residual is zero by construction (their line equations hold with the final even
     /// rows), so only the even rows are evaluated.
-    fn xi_line_sweep<const RES: bool>(&self, u: &mut [f64], r: &mut [f64]) -> f64 {
+    fn xi_line_sweep<const RES: bool>(&self, u: &mut [T], r: &mut [T]) -> f64 {
         let (nx, ny) = (self.lay.nx, self.lay.ny);
         if nx < 2 || ny < 2 {
             return 0.0;
@@ -1467,7 +1506,7 @@ impl<'a> Kernel<'a> {
         if !RES {
             return 0.0;
         }
-        r.fill(0.0);
+        r.fill(T::ZERO);
         let mut sum = 0.0;
         for j in (2..ny).step_by(2) {
             sum += self.residual_half::<false>(u, r, j, true);
@@ -1479,7 +1518,7 @@ impl<'a> Kernel<'a> {
     /// Solves the ξ-line systems of the `G` rows `rows` (see [`Kernel::xi_line_sweep`]),
     /// overwriting their interior nodes in `u`; `r` holds the eliminated right-hand sides.
     #[inline(always)]
-    fn xi_lines<const G: usize>(&self, u: &mut [f64], r: &mut [f64], rows: [usize; G]) {
+    fn xi_lines<const G: usize>(&self, u: &mut [T], r: &mut [T], rows: [usize; G]) {
         let lay = self.lay;
         let (w, nx) = (lay.w, lay.nx);
         let off = |i: usize| lay.pos(i, 0);
@@ -1491,7 +1530,7 @@ impl<'a> Kernel<'a> {
         let east = base.map(|b| self.ce[b + o1] * u[b + oe]);
         // Forward elimination y_i = b_i + g_i y_{i−1}, where b_i holds the source, the held
         // north and south neighbours and the edges.
-        let mut y = [0.0; G];
+        let mut y = [T::ZERO; G];
         for i in 1..nx {
             let o = off(i);
             let (at_west, at_east) = (i == 1, i + 1 == nx);
@@ -1510,7 +1549,7 @@ impl<'a> Kernel<'a> {
         }
         // Back substitution u_i = (y_i + c_e(i) u_{i+1}) / β_i (no interior u_{i+1} for the
         // last node: v starts at zero).
-        let mut v = [0.0; G];
+        let mut v = [T::ZERO; G];
         for i in (1..nx).rev() {
             let o = off(i);
             for q in 0..G {
@@ -1541,18 +1580,18 @@ impl<'a> Kernel<'a> {
     #[inline(always)]
     fn sweep<const FLOOR: bool, const MASK: bool, const RES: bool>(
         &self,
-        u: &mut [f64],
-        r: &mut [f64],
-        omega: f64,
-        floor: f64,
-        mut ahead: impl FnMut(&mut [f64], usize),
+        u: &mut [T],
+        r: &mut [T],
+        omega: T,
+        floor: T,
+        mut ahead: impl FnMut(&mut [T], usize),
     ) -> f64 {
         let lay = self.lay;
         let ny = lay.ny;
         let mut sum = 0.0;
         if RES {
-            r[..lay.w].fill(0.0);
-            r[ny * lay.w..].fill(0.0);
+            r[..lay.w].fill(T::ZERO);
+            r[ny * lay.w..].fill(T::ZERO);
         }
         if ny >= 2 {
             ahead(u, 1);
@@ -1570,8 +1609,8 @@ impl<'a> Kernel<'a> {
                 sum += self.update::<FLOOR, MASK, RES>(u, r, jb, jb % 2 == 1, omega, floor);
                 if RES {
                     let row = jb * lay.w;
-                    r[row + lay.pos(0, 0)] = 0.0;
-                    r[row + lay.pos(lay.nx, 0)] = 0.0;
+                    r[row + lay.pos(0, 0)] = T::ZERO;
+                    r[row + lay.pos(lay.nx, 0)] = T::ZERO;
                 }
             }
             if RES && j >= 3 {
@@ -1594,12 +1633,12 @@ impl<'a> Kernel<'a> {
     #[inline(always)]
     fn update<const FLOOR: bool, const MASK: bool, const RES: bool>(
         &self,
-        u: &mut [f64],
-        r: &mut [f64],
+        u: &mut [T],
+        r: &mut [T],
         j: usize,
         part_even: bool,
-        omega: f64,
-        floor: f64,
+        omega: T,
+        floor: T,
     ) -> f64 {
         let lay = self.lay;
         let w = lay.w;
@@ -1612,7 +1651,7 @@ impl<'a> Kernel<'a> {
         let (lo, rest) = u.split_at_mut(hr.row);
         let (cur, hi) = rest.split_at_mut(w);
         let (cur_e, cur_o) = cur.split_at_mut(lay.he);
-        let (me_all, side): (&mut [f64], &[f64]) = if part_even {
+        let (me_all, side): (&mut [T], &[T]) = if part_even {
             (cur_e, cur_o)
         } else {
             (cur_o, cur_e)
@@ -1630,8 +1669,8 @@ impl<'a> Kernel<'a> {
         let idr = &self.id[s..s + n];
         let fr = &self.f[s..s + n];
         let mk: &[bool] = if MASK { &self.mask[s..s + n] } else { &[] };
-        let dr: &[f64] = if RES { &self.d[s..s + n] } else { &[] };
-        let out: &mut [f64] = if RES { &mut r[s..s + n] } else { &mut [] };
+        let dr: &[T] = if RES { &self.d[s..s + n] } else { &[] };
+        let out: &mut [T] = if RES { &mut r[s..s + n] } else { &mut [] };
         for k in 0..n {
             let sum = fr[k]
                 + ce_e[k] * east[k]
@@ -1650,7 +1689,7 @@ impl<'a> Kernel<'a> {
             if RES {
                 let mut rk = sum - dr[k] * v;
                 if MASK && mk[k] {
-                    rk = 0.0;
+                    rk = T::ZERO;
                 }
                 out[k] = rk;
             }
@@ -1663,8 +1702,8 @@ impl<'a> Kernel<'a> {
     #[inline(always)]
     fn residual_half<const MASK: bool>(
         &self,
-        u: &[f64],
-        r: &mut [f64],
+        u: &[T],
+        r: &mut [T],
         j: usize,
         part_even: bool,
     ) -> f64 {
@@ -1695,7 +1734,7 @@ impl<'a> Kernel<'a> {
                 - cn_s[k] * below[k];
             let mut rk = fr[k] - au;
             if MASK && mk[k] {
-                rk = 0.0;
+                rk = T::ZERO;
             }
             out[k] = rk;
         }
@@ -1703,15 +1742,15 @@ impl<'a> Kernel<'a> {
     }
 
     /// Residual `r = f − A u` of all interior nodes (edges zero); returns `Σ r²`.
-    fn residual<const MASK: bool>(&self, u: &[f64], r: &mut [f64]) -> f64 {
+    fn residual<const MASK: bool>(&self, u: &[T], r: &mut [T]) -> f64 {
         let lay = self.lay;
-        r[..lay.w].fill(0.0);
-        r[lay.ny * lay.w..].fill(0.0);
+        r[..lay.w].fill(T::ZERO);
+        r[lay.ny * lay.w..].fill(T::ZERO);
         let mut sum = 0.0;
         for j in 1..lay.ny {
             let row = j * lay.w;
-            r[row + lay.pos(0, 0)] = 0.0;
-            r[row + lay.pos(lay.nx, 0)] = 0.0;
+            r[row + lay.pos(0, 0)] = T::ZERO;
+            r[row + lay.pos(lay.nx, 0)] = T::ZERO;
             sum += self.residual_half::<MASK>(u, r, j, true);
             sum += self.residual_half::<MASK>(u, r, j, false);
         }
@@ -1722,8 +1761,8 @@ impl<'a> Kernel<'a> {
 /// `Σ x²` with eight independent partial sums, so that the loop vectorises (a single running
 /// sum is a serial dependency chain the compiler may not reorder).
 #[inline(always)]
-fn sum_sq(x: &[f64]) -> f64 {
-    let mut acc = [0.0; 8];
+fn sum_sq<T: Real>(x: &[T]) -> f64 {
+    let mut acc = [T::ZERO; 8];
     let chunks = x.chunks_exact(8);
     let tail = chunks.remainder();
     for c in chunks {
@@ -1731,16 +1770,19 @@ fn sum_sq(x: &[f64]) -> f64 {
             acc[q] += c[q] * c[q];
         }
     }
-    let mut s = tail.iter().map(|v| v * v).sum::<f64>();
+    let mut s = T::ZERO;
+    for &v in tail {
+        s += v * v;
+    }
     for a in acc {
         s += a;
     }
-    s
+    s.f64()
 }
 
 /// Residual of a level into its `r`; `corrected` uses the boundary-corrected diagonal of a
 /// coarse level with excluded nodes (whose entries are then zero). Returns `Σ r²`.
-fn residual(o: &mut Ops, corrected: bool) -> f64 {
+fn residual<T: Real>(o: &mut Ops<T>, corrected: bool) -> f64 {
     let (k, u, r) = o.parts(corrected);
     if corrected {
         k.residual::<true>(u, r)
@@ -1751,7 +1793,7 @@ fn residual(o: &mut Ops, corrected: bool) -> f64 {
 
 /// Restriction `R = Pᵀ` of the fine residual (or right-hand side) `r` onto the coarse
 /// right-hand side (interior coarse nodes; boundary entries zero).
-fn restrict(fine: &Ops, r: &[f64], coarse: &mut Ops, tmp: &mut [f64]) {
+fn restrict<T: Real>(fine: &Ops<T>, r: &[T], coarse: &mut Ops<T>, tmp: &mut [T]) {
     let (fl, cl) = (fine.lay, coarse.lay);
     let (w, he) = (fl.w, fl.he);
     let wc = cl.w;
@@ -1767,8 +1809,8 @@ fn restrict(fine: &Ops, r: &[f64], coarse: &mut Ops, tmp: &mut [f64]) {
         }
     }
     let (cw, che) = (cl.w, cl.he);
-    coarse.f[..cw].fill(0.0);
-    coarse.f[cl.ny * cw..].fill(0.0);
+    coarse.f[..cw].fill(T::ZERO);
+    coarse.f[cl.ny * cw..].fill(T::ZERO);
     for jc in 1..cl.ny {
         let j = 2 * jc;
         let (a, b) = (fine.wyr[j - 1], fine.wyl[j + 1]);
@@ -1783,7 +1825,7 @@ fn restrict(fine: &Ops, r: &[f64], coarse: &mut Ops, tmp: &mut [f64]) {
         for (m, x) in even.iter_mut().enumerate() {
             let ic = 2 * m;
             *x = if ic == 0 || ic == cl.nx {
-                0.0
+                T::ZERO
             } else {
                 t1[ic] + a * t0[ic] + b * t2[ic]
             };
@@ -1791,7 +1833,7 @@ fn restrict(fine: &Ops, r: &[f64], coarse: &mut Ops, tmp: &mut [f64]) {
         for (m, x) in odd.iter_mut().enumerate() {
             let ic = 2 * m + 1;
             *x = if ic == cl.nx {
-                0.0
+                T::ZERO
             } else {
                 t1[ic] + a * t0[ic] + b * t2[ic]
             };
@@ -1802,29 +1844,29 @@ fn restrict(fine: &Ops, r: &[f64], coarse: &mut Ops, tmp: &mut [f64]) {
 /// Bilinear interpolation of a coarse correction onto the fine level, row by row: adds it to
 /// the fine iterate on interior nodes (skipping the fine level's excluded nodes if a mask is
 /// given) and clips the row at the cavitation floor if one is given.
-struct Prolong<'a> {
+struct Prolong<'a, T: Real> {
     fl: Layout,
     /// Coarse correction in natural order, rows of `cnx + 1`.
-    coarse: &'a [f64],
+    coarse: &'a [T],
     /// Scratch: the coarse rows interpolated along η onto one fine row.
-    line: &'a mut [f64],
-    wl: &'a [f64],
-    wr: &'a [f64],
-    wyl: &'a [f64],
-    wyr: &'a [f64],
+    line: &'a mut [T],
+    wl: &'a [T],
+    wr: &'a [T],
+    wyl: &'a [T],
+    wyr: &'a [T],
     mask: Option<&'a [bool]>,
-    floor: Option<f64>,
+    floor: Option<T>,
 }
 
-impl<'a> Prolong<'a> {
+impl<'a, T: Real> Prolong<'a, T> {
     /// Prepares the interpolation of the coarse correction `uc` (split layout of the next
     /// coarser level) with `fine`'s weights; `row_buf` is scratch.
     fn new(
-        fine: &'a Ops,
-        uc: &[f64],
+        fine: &'a Ops<T>,
+        uc: &[T],
         use_mask: bool,
-        floor: Option<f64>,
-        row_buf: &'a mut [f64],
+        floor: Option<T>,
+        row_buf: &'a mut [T],
     ) -> Self {
         let fl = fine.lay;
         let cl = Layout::new(fl.nx / 2, fl.ny / 2);
@@ -1846,14 +1888,14 @@ impl<'a> Prolong<'a> {
     /// Adds the interpolated correction to interior row `j` (1 ≤ j < ny) of `u` (Pa), then
     /// clips the whole row at the floor if there is one.
     #[inline(always)]
-    fn row(&mut self, u: &mut [f64], j: usize) {
+    fn row(&mut self, u: &mut [T], j: usize) {
         let fl = self.fl;
         let (cnx, w, he) = (fl.nx / 2, fl.w, fl.he);
         let (cw, ho) = (cnx + 1, w - he);
         let row = j * w;
         // Interpolate the coarse row(s) onto this fine row: even and odd fine columns.
         let (ja, jb, a, b) = if j.is_multiple_of(2) {
-            (j / 2, j / 2, 1.0, 0.0)
+            (j / 2, j / 2, T::ONE, T::ZERO)
         } else {
             ((j - 1) / 2, j.div_ceil(2), self.wyl[j], self.wyr[j])
         };
@@ -1861,7 +1903,7 @@ impl<'a> Prolong<'a> {
         let cb = &self.coarse[jb * cw..(jb + 1) * cw];
         // The coarse correction interpolated along η onto this fine row, at the coarse columns.
         let lin = &mut self.line[..cw];
-        if b == 0.0 {
+        if b == T::ZERO {
             lin.copy_from_slice(ca);
         } else {
             for ((l, &x), &y) in lin.iter_mut().zip(ca).zip(cb) {
@@ -1899,14 +1941,14 @@ impl<'a> Prolong<'a> {
             }
         }
         if let Some(f) = self.floor {
-            urow.iter_mut().for_each(|x| *x = x.max(f));
+            urow.iter_mut().for_each(|x| *x = x.max_of(f));
         }
     }
 }
 
 /// Adds the bilinear interpolation of the coarse correction `uc` to the fine `u` on interior
 /// nodes, skipping the fine level's excluded nodes if `use_mask`.
-fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) {
+fn prolong_add<T: Real>(fine: &mut Ops<T>, uc: &[T], use_mask: bool, row_buf: &mut [T]) {
     let mut u = std::mem::take(&mut fine.u);
     {
         let mut p = Prolong::new(fine, uc, use_mask, None, row_buf);
@@ -1922,14 +1964,14 @@ fn prolong_add(fine: &mut Ops, uc: &[f64], use_mask: bool, row_buf: &mut [f64]) 
 /// With point smoothing the first sweep adds the correction to each row just before it reads
 /// it, so the correction and the sweep share one pass over memory.
 #[allow(clippy::too_many_arguments)]
-fn prolong_smooth(
-    fine: &mut Ops,
-    uc: &[f64],
+fn prolong_smooth<T: Real>(
+    fine: &mut Ops<T>,
+    uc: &[T],
     use_mask: bool,
-    row_buf: &mut [f64],
+    row_buf: &mut [T],
     sweeps: usize,
-    floor: Option<f64>,
-    omega: f64,
+    floor: Option<T>,
+    omega: T,
     corrected: bool,
     lines: Smoother,
 ) {
@@ -1938,7 +1980,7 @@ fn prolong_smooth(
     if sweeps == 0 || line_path {
         prolong_add(fine, uc, use_mask, row_buf);
         if let Some(fl) = floor {
-            fine.u.iter_mut().for_each(|x| *x = x.max(fl));
+            fine.u.iter_mut().for_each(|x| *x = x.max_of(fl));
         }
         smooth(fine, sweeps, floor, omega, corrected, false, lines);
         return;
@@ -1953,10 +1995,10 @@ fn prolong_smooth(
             let w = fine.lay.w;
             let (first, rest) = u.split_at_mut(w);
             for x in first.iter_mut().chain(rest[(ny - 1) * w..].iter_mut()) {
-                *x = x.max(fl);
+                *x = x.max_of(fl);
             }
         }
-        let ahead = |u: &mut [f64], j: usize| p.row(u, j);
+        let ahead = |u: &mut [T], j: usize| p.row(u, j);
         let k = fine.kernel(corrected);
         k.point_sweep(&mut u, &mut r, omega, floor, corrected, false, ahead);
     }
@@ -1989,11 +2031,11 @@ fn stencil_start(m: usize, n_coarse: usize) -> usize {
 /// direction; linear where the coarse level has fewer than four nodes across. Cubic
 /// interpolation of the solution keeps the fine residual of a full-multigrid start small, as
 /// the solution is smooth (linear interpolation is enough for corrections).
-fn interpolate_cubic(fine: &mut Ops, xi: &[f64], eta: &[f64], uc: &[f64], buf: &mut [f64]) {
+fn interpolate_cubic<T: Real>(fine: &mut Ops<T>, xi: &[f64], eta: &[f64], uc: &[T], buf: &mut [T]) {
     let fl = fine.lay;
     let (cnx, cny) = (fl.nx / 2, fl.ny / 2);
     if cnx < 3 || cny < 3 {
-        fine.u.fill(0.0);
+        fine.u.fill(T::ZERO);
         prolong_add(fine, uc, false, buf);
         return;
     }
@@ -2007,10 +2049,10 @@ fn interpolate_cubic(fine: &mut Ops, xi: &[f64], eta: &[f64], uc: &[f64], buf: &
     let (rows, rest) = buf.split_at_mut((cny + 1) * w);
     let nat = &mut rest[..cl.len()];
     cl.to_natural(uc, nat);
-    let wx: Vec<(usize, [f64; 4])> = (0..cnx)
+    let wx: Vec<(usize, [T; 4])> = (0..cnx)
         .map(|m| {
             let s0 = stencil_start(m, cnx + 1);
-            (s0, lagrange4(&xc, s0, xi[2 * m + 1]))
+            (s0, lagrange4(&xc, s0, xi[2 * m + 1]).map(T::of))
         })
         .collect();
     for (crow, row) in nat.chunks_exact(cw).zip(rows.chunks_exact_mut(w)) {
@@ -2022,7 +2064,7 @@ fn interpolate_cubic(fine: &mut Ops, xi: &[f64], eta: &[f64], uc: &[f64], buf: &
             row[2 * m + 1] = wt[0] * c[0] + wt[1] * c[1] + wt[2] * c[2] + wt[3] * c[3];
         }
     }
-    fine.u.fill(0.0);
+    fine.u.fill(T::ZERO);
     let he = fl.he;
     for (j, &eta_j) in eta.iter().enumerate().take(fl.ny).skip(1) {
         let out = &mut fine.u[j * w..(j + 1) * w];
@@ -2031,8 +2073,8 @@ fn interpolate_cubic(fine: &mut Ops, xi: &[f64], eta: &[f64], uc: &[f64], buf: &
             scatter_interior(out, he, src, |x| x);
         } else {
             let s0 = stencil_start((j - 1) / 2, cny + 1);
-            let wt = lagrange4(&yc, s0, eta_j);
-            let r: [&[f64]; 4] = std::array::from_fn(|q| &rows[(s0 + q) * w..(s0 + q + 1) * w]);
+            let wt = lagrange4(&yc, s0, eta_j).map(T::of);
+            let r: [&[T]; 4] = std::array::from_fn(|q| &rows[(s0 + q) * w..(s0 + q + 1) * w]);
             let line = &mut fine.r[j * w..(j + 1) * w];
             for i in 0..w {
                 line[i] = wt[0] * r[0][i] + wt[1] * r[1][i] + wt[2] * r[2][i] + wt[3] * r[3][i];
@@ -2045,7 +2087,7 @@ fn interpolate_cubic(fine: &mut Ops, xi: &[f64], eta: &[f64], uc: &[f64], buf: &
 /// Writes the interior entries (`1..nx`) of a natural-order row `src` into the split-layout
 /// row `out` (even half first), through `f`.
 #[inline(always)]
-fn scatter_interior(out: &mut [f64], he: usize, src: &[f64], f: impl Fn(f64) -> f64) {
+fn scatter_interior<T: Real>(out: &mut [T], he: usize, src: &[T], f: impl Fn(T) -> T) {
     let nx = src.len() - 1;
     let (even, odd) = out.split_at_mut(he);
     for m in 1..he {
@@ -2090,7 +2132,7 @@ mod tests {
             crown: 0.0,
         };
         s.assemble(&state, &vec![0.02; 65 * 65]).unwrap();
-        s.mg.use_lines
+        s.mg.h.use_lines
     }
 
     /// With equal node counts and a nearly uniform film, a cell's η- to ξ-conductance ratio is
