@@ -412,6 +412,7 @@ impl NumericsSpec {
         )?;
         r.cycle.gamma = self.coarse_grid_visits;
         r.cycle.lines = self.line_smoothing;
+        r.cycle.mixed_precision = self.single_precision_corrections;
         let e = &mut n.equilibrium;
         e.min_film = um_to_m(positive(
             "numerics.smallest_film_um",
@@ -465,6 +466,7 @@ impl NumericsSpec {
             relaxation_factor: tidy(n.reynolds.cycle.omega),
             coarse_grid_visits: n.reynolds.cycle.gamma,
             line_smoothing: n.reynolds.cycle.lines,
+            single_precision_corrections: n.reynolds.cycle.mixed_precision,
         }
     }
 }

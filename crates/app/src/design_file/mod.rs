@@ -310,6 +310,9 @@ pub struct NumericsSpec {
     /// Multigrid: smooth along lines where the cells couple more strongly in one direction
     /// everywhere: across the motion (narrow or long pads) or along it (short, wide pads).
     pub line_smoothing: bool,
+    /// Multigrid: compute the corrections of pressure solves in single precision inside
+    /// iterative refinement (the solution still meets the tolerance in double precision).
+    pub single_precision_corrections: bool,
 }
 
 impl Default for NumericsSpec {

@@ -44,6 +44,7 @@ pub(super) const FULL: &str = r#"(
         relaxation_factor: 1.1,
         coarse_grid_visits: 2,
         line_smoothing: false,
+        single_precision_corrections: false,
     ),
 )"#;
 
@@ -149,6 +150,7 @@ fn numerics_become_si() {
     let c = n.reynolds.cycle;
     assert_eq!((c.pre_sweeps, c.post_sweeps, c.gamma), (2, 3, 2));
     assert_eq!(c.omega, 1.1);
+    assert!(!c.lines && !c.mixed_precision);
 }
 
 #[test]
