@@ -231,20 +231,6 @@ impl Layout {
         }
     }
 
-    /// Copies `natural` (natural order, f64) into `split` (split layout) multiplied by `k`.
-    fn to_split_scaled<T: Real>(self, natural: &[f64], split: &mut [T], k: f64) {
-        let (w, he) = (self.w, self.he);
-        for (nat, sp) in natural.chunks_exact(w).zip(split.chunks_exact_mut(w)) {
-            let (even, odd) = sp.split_at_mut(he);
-            for (m, x) in even.iter_mut().enumerate() {
-                *x = T::of(nat[2 * m] * k);
-            }
-            for (m, x) in odd.iter_mut().enumerate() {
-                *x = T::of(nat[2 * m + 1] * k);
-            }
-        }
-    }
-
     /// Copies `split` (split layout) into `natural` (natural order), converting the values.
     fn to_natural<S: Real, T: Real>(self, split: &[S], natural: &mut [T]) {
         let (w, he) = (self.w, self.he);
@@ -401,21 +387,32 @@ impl<T: Real> Ops<T> {
 
     /// Copies the level's operator into split layout; for line smoothing, also factorises the
     /// tridiagonal systems of the lines.
-    ///
-    /// The operator is stored multiplied by `scale` (see [`Hierarchy::scale`]).
-    fn load(&mut self, level: &Level, lines: Smoother, scale: f64) {
-        if scale == 1.0 {
-            self.lay.to_split(&level.ce, &mut self.ce);
-            self.lay.to_split(&level.cn, &mut self.cn);
-            self.lay.to_split(&level.inv_diag, &mut self.id);
-            self.lay.to_split(&level.diag, &mut self.d);
-        } else {
-            self.lay.to_split_scaled(&level.ce, &mut self.ce, scale);
-            self.lay.to_split_scaled(&level.cn, &mut self.cn, scale);
-            self.lay
-                .to_split_scaled(&level.inv_diag, &mut self.id, 1.0 / scale);
-            self.lay.to_split_scaled(&level.diag, &mut self.d, scale);
-        }
+    fn load(&mut self, level: &Level, lines: Smoother) {
+        self.lay.to_split(&level.ce, &mut self.ce);
+        self.lay.to_split(&level.cn, &mut self.cn);
+        self.lay.to_split(&level.inv_diag, &mut self.id);
+        self.lay.to_split(&level.diag, &mut self.d);
+        self.factor_lines(lines);
+    }
+
+    /// Copies the operator of the same level in another precision (split layout both),
+    /// multiplied by `scale` (see [`Hierarchy::scale`]); for line smoothing, factorises the
+    /// lines' tridiagonal systems in this precision.
+    fn load_scaled_from<S: Real>(&mut self, src: &Ops<S>, lines: Smoother, scale: f64) {
+        let conv = |from: &[S], to: &mut [T], k: f64| {
+            for (t, &f) in to.iter_mut().zip(from) {
+                *t = T::of(f.f64() * k);
+            }
+        };
+        conv(&src.ce, &mut self.ce, scale);
+        conv(&src.cn, &mut self.cn, scale);
+        conv(&src.id, &mut self.id, 1.0 / scale);
+        conv(&src.d, &mut self.d, scale);
+        self.factor_lines(lines);
+    }
+
+    /// Marks the exclusion's diagonal stale and factorises the lines of the chosen smoother.
+    fn factor_lines(&mut self, lines: Smoother) {
         self.excl.stale = true;
         match lines {
             Smoother::Points => {}
@@ -634,7 +631,7 @@ impl Multigrid {
         } else {
             Smoother::Points
         };
-        self.h.load(&self.levels, lines, false);
+        self.h.load(&self.levels, lines);
         self.h32_stale = true;
         hmin
     }
@@ -978,7 +975,7 @@ impl Multigrid {
     /// Loads the single-precision hierarchy from the levels if the operator changed since.
     fn load_single(&mut self) {
         if self.h32_stale {
-            self.h32.load(&self.levels, self.h.use_lines, true);
+            self.h32.load_scaled_from(&self.h);
             self.h32_stale = false;
         }
     }
@@ -1088,26 +1085,31 @@ impl<T: Real> Hierarchy<T> {
 
     /// Copies the assembled operators of `levels` (in their split layout and precision) and
     /// factorises the coarsest level.
-    ///
-    /// With `scaled`, the operators are stored multiplied by a power of two near the reciprocal
-    /// of the finest level's mean diagonal (see [`Hierarchy::scale`]).
-    fn load(&mut self, levels: &[Level], lines: Smoother, scaled: bool) {
+    fn load(&mut self, levels: &[Level], lines: Smoother) {
         self.use_lines = lines;
-        self.scale = if scaled {
-            let d = &levels[0].diag;
-            let mean = d.iter().sum::<f64>() / d.len() as f64;
-            if mean.is_finite() && mean > 0.0 {
-                2f64.powi(-(mean.log2().round() as i32))
-            } else {
-                1.0
-            }
+        self.scale = 1.0;
+        for (l, o) in levels.iter().zip(&mut self.ops) {
+            o.load(l, lines);
+        }
+        self.coarse.factor(levels.last().unwrap());
+    }
+
+    /// Copies the operators of `src` (the same levels in another precision), multiplied by a
+    /// power of two near the reciprocal of the finest level's mean diagonal (see
+    /// [`Hierarchy::scale`]), and its coarsest factorisation.
+    fn load_scaled_from<S: Real>(&mut self, src: &Hierarchy<S>) {
+        self.use_lines = src.use_lines;
+        let d = &src.ops[0].d;
+        let mean = d.iter().map(|x| x.f64()).sum::<f64>() / d.len() as f64;
+        self.scale = if mean.is_finite() && mean > 0.0 {
+            2f64.powi(-(mean.log2().round() as i32))
         } else {
             1.0
         };
-        for (l, o) in levels.iter().zip(&mut self.ops) {
-            o.load(l, lines, self.scale);
+        for (o, s) in self.ops.iter_mut().zip(&src.ops) {
+            o.load_scaled_from(s, src.use_lines, self.scale);
         }
-        self.coarse.factor(levels.last().unwrap());
+        self.coarse.clone_from(&src.coarse);
     }
 
     /// Pre-smooths the top level `l` (projected if `floor`) and leaves the residual of the
