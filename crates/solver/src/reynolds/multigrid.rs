@@ -30,6 +30,14 @@
 //!   is odd); that level is solved exactly by banded Cholesky.
 //! * Cold starts use full multigrid: nested iteration from the coarsest level with cubic
 //!   interpolation of each coarse solution.
+//! * Precision: the levels form a [`Hierarchy`] generic over its floating-point type. Besides
+//!   the `f64` hierarchy (the solution, projected cycles) an `f32` copy computes corrections
+//!   inside iterative refinement: the residual `r = f − A u` is formed in `f64`, `A e = r`
+//!   is solved approximately by `f32` cycles (full multigrid for cold starts with point
+//!   smoothing), and `u + e` is the new iterate, so the tolerance is met in `f64`. Each
+//!   `f32` sweep moves half the bytes. The rounding of `f32` limits the reduction one
+//!   correction can achieve to about `κ(A) · 6e-8` (1e-4 at 129² nodes), far below what the
+//!   few cycles of a round achieve.
 
 use super::banded::BandedCholesky;
 use super::real::Real;
