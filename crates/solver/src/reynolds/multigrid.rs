@@ -230,11 +230,13 @@ impl Layout {
         let (w, he) = (self.w, self.he);
         for (nat, sp) in natural.chunks_exact(w).zip(split.chunks_exact_mut(w)) {
             let (even, odd) = sp.split_at_mut(he);
-            for (m, x) in even.iter_mut().enumerate() {
-                *x = T::of(nat[2 * m].f64());
+            // Pairs (2m, 2m + 1), then the last even column if the row has an odd count.
+            for ((e, o), pair) in even.iter_mut().zip(odd.iter_mut()).zip(nat.chunks_exact(2)) {
+                *e = T::of(pair[0].f64());
+                *o = T::of(pair[1].f64());
             }
-            for (m, x) in odd.iter_mut().enumerate() {
-                *x = T::of(nat[2 * m + 1].f64());
+            if he > w - he {
+                even[he - 1] = T::of(nat[w - 1].f64());
             }
         }
     }
@@ -244,11 +246,13 @@ impl Layout {
         let (w, he) = (self.w, self.he);
         for (sp, nat) in split.chunks_exact(w).zip(natural.chunks_exact_mut(w)) {
             let (even, odd) = sp.split_at(he);
-            for (m, &x) in even.iter().enumerate() {
-                nat[2 * m] = T::of(x.f64());
+            // Pairs (2m, 2m + 1), then the last even column if the row has an odd count.
+            for ((&e, &o), pair) in even.iter().zip(odd).zip(nat.chunks_exact_mut(2)) {
+                pair[0] = T::of(e.f64());
+                pair[1] = T::of(o.f64());
             }
-            for (m, &x) in odd.iter().enumerate() {
-                nat[2 * m + 1] = T::of(x.f64());
+            if he > w - he {
+                nat[w - 1] = T::of(even[he - 1].f64());
             }
         }
     }
@@ -2040,7 +2044,7 @@ fn restrict<T: Real>(fine: &Ops<T>, r: &[T], coarse: &mut Ops<T>, tmp: &mut [T])
     let (w, he) = (fl.w, fl.he);
     let wc = cl.w;
     // Along the motion, fine row j → tmp(I, j) in natural coarse-column order:
-    // tmp(I) = r(2I) + wr(2I−1) r(2I−1) + wl(2I+1) r(2I+1).
+    // tmp(I) = r(2I) + wr(2I−1) r(2I−1) + wl(2I+1) r(2I+1); the edge columns are zero.
     for j in 1..fl.ny {
         let row = j * w;
         let re = &r[row..row + he];
@@ -2049,36 +2053,38 @@ fn restrict<T: Real>(fine: &Ops<T>, r: &[T], coarse: &mut Ops<T>, tmp: &mut [T])
         for ic in 1..cl.nx {
             t[ic] = re[ic] + fine.wr[ic - 1] * ro[ic - 1] + fine.wl[ic] * ro[ic];
         }
+        t[0] = T::ZERO;
+        t[cl.nx] = T::ZERO;
     }
-    let (cw, che) = (cl.w, cl.he);
-    coarse.f[..cw].fill(T::ZERO);
-    coarse.f[cl.ny * cw..].fill(T::ZERO);
+    let che = cl.he;
+    coarse.f[..wc].fill(T::ZERO);
+    coarse.f[cl.ny * wc..].fill(T::ZERO);
+    // A row buffer behind the rows of tmp (tmp holds a fine level's node count, more than
+    // the fine rows of coarse width need).
+    let (rows, spare) = tmp.split_at_mut(fl.ny * wc);
+    let v = &mut spare[..wc];
     for jc in 1..cl.ny {
         let j = 2 * jc;
         let (a, b) = (fine.wyr[j - 1], fine.wyl[j + 1]);
         let (t0, t1, t2) = (
-            &tmp[(j - 1) * wc..j * wc],
-            &tmp[j * wc..(j + 1) * wc],
-            &tmp[(j + 1) * wc..(j + 2) * wc],
+            &rows[(j - 1) * wc..j * wc],
+            &rows[j * wc..(j + 1) * wc],
+            &rows[(j + 1) * wc..(j + 2) * wc],
         );
-        let out = &mut coarse.f[jc * cw..(jc + 1) * cw];
-        let (even, odd) = out.split_at_mut(che);
-        // Even coarse columns ic = 2m, odd ic = 2m + 1; the edge columns stay zero.
-        for (m, x) in even.iter_mut().enumerate() {
-            let ic = 2 * m;
-            *x = if ic == 0 || ic == cl.nx {
-                T::ZERO
-            } else {
-                t1[ic] + a * t0[ic] + b * t2[ic]
-            };
+        // Across the motion, in natural coarse-column order (unit stride), then split into
+        // the even and odd coarse columns; the edge columns of tmp are zero, so the edge
+        // entries come out zero.
+        for k in 0..wc {
+            v[k] = t1[k] + a * t0[k] + b * t2[k];
         }
-        for (m, x) in odd.iter_mut().enumerate() {
-            let ic = 2 * m + 1;
-            *x = if ic == cl.nx {
-                T::ZERO
-            } else {
-                t1[ic] + a * t0[ic] + b * t2[ic]
-            };
+        let out = &mut coarse.f[jc * wc..(jc + 1) * wc];
+        let (even, odd) = out.split_at_mut(che);
+        for ((e, o), pair) in even.iter_mut().zip(odd.iter_mut()).zip(v.chunks_exact(2)) {
+            *e = pair[0];
+            *o = pair[1];
+        }
+        if even.len() > odd.len() {
+            even[che - 1] = v[2 * (che - 1)];
         }
     }
 }
@@ -2298,13 +2304,13 @@ fn interpolate_cubic<T: Real>(fine: &mut Ops<T>, xi: &[f64], eta: &[f64], uc: &[
         })
         .collect();
     for (crow, row) in nat.chunks_exact(cw).zip(rows.chunks_exact_mut(w)) {
-        for (ic, &v) in crow.iter().enumerate() {
-            row[2 * ic] = v;
-        }
-        for (m, &(s0, wt)) in wx.iter().enumerate() {
+        // Fine columns 2m (the coarse node) and 2m + 1 (between coarse m and m + 1).
+        for ((pair, &(s0, wt)), &v) in row.chunks_exact_mut(2).zip(&wx).zip(crow) {
             let c = &crow[s0..s0 + 4];
-            row[2 * m + 1] = wt[0] * c[0] + wt[1] * c[1] + wt[2] * c[2] + wt[3] * c[3];
+            pair[0] = v;
+            pair[1] = wt[0] * c[0] + wt[1] * c[1] + wt[2] * c[2] + wt[3] * c[3];
         }
+        row[w - 1] = crow[cnx];
     }
     fine.u.fill(T::ZERO);
     let he = fl.he;
@@ -2332,15 +2338,24 @@ fn interpolate_cubic<T: Real>(fine: &mut Ops<T>, xi: &[f64], eta: &[f64], uc: &[
 fn scatter_interior<T: Real>(out: &mut [T], he: usize, src: &[T], f: impl Fn(T) -> T) {
     let nx = src.len() - 1;
     let (even, odd) = out.split_at_mut(he);
-    for m in 1..he {
-        if 2 * m < nx {
-            even[m] = f(src[2 * m]);
-        }
+    // All pairs (2m, 2m + 1) without branches, then the two edge entries put back.
+    let (first, last) = (
+        even[0],
+        if nx % 2 == 0 {
+            even[nx / 2]
+        } else {
+            odd[nx / 2]
+        },
+    );
+    for ((e, o), pair) in even.iter_mut().zip(odd.iter_mut()).zip(src.chunks_exact(2)) {
+        *e = f(pair[0]);
+        *o = f(pair[1]);
     }
-    for (m, x) in odd.iter_mut().enumerate() {
-        if 2 * m + 1 < nx {
-            *x = f(src[2 * m + 1]);
-        }
+    even[0] = first;
+    if nx.is_multiple_of(2) {
+        even[nx / 2] = last;
+    } else {
+        odd[nx / 2] = last;
     }
 }
 
