@@ -2341,7 +2341,7 @@ fn scatter_interior<T: Real>(out: &mut [T], he: usize, src: &[T], f: impl Fn(T) 
     // All pairs (2m, 2m + 1) without branches, then the two edge entries put back.
     let (first, last) = (
         even[0],
-        if nx % 2 == 0 {
+        if nx.is_multiple_of(2) {
             even[nx / 2]
         } else {
             odd[nx / 2]
