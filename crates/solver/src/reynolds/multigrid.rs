@@ -2367,8 +2367,9 @@ mod tests {
     use crate::grid::Grid;
     use crate::reynolds::{ReynoldsSettings, ReynoldsSolver};
 
-    /// The smoother chosen for a sector of `inner`–`outer` m and `arc_deg` on 65 × 65 nodes.
-    fn chosen(inner_radius: f64, outer_radius: f64, arc_deg: f64) -> Smoother {
+    /// A tilting sector pad of `inner`–`outer` m and `arc_deg` on 65 × 65 nodes, assembled for
+    /// a 30 µm film with some pitch.
+    fn assembled(inner_radius: f64, outer_radius: f64, arc_deg: f64) -> ReynoldsSolver {
         let o = PadOutline::Sector {
             inner_radius,
             outer_radius,
@@ -2389,41 +2390,24 @@ mod tests {
             crown: 0.0,
         };
         s.assemble(&state, &vec![0.02; 65 * 65]).unwrap();
-        s.mg.h.use_lines
+        s
     }
 
-    /// With equal node counts and a nearly uniform film, a cell's η- to ξ-conductance ratio is
-    /// the square of its aspect ratio `(r Δθ / Δr)²` (five-point finite volumes; a geometric
-    /// fact of the discretisation). Narrow sector 100–120 mm, 20°: at least (34.9/20)² = 3.0
-    /// everywhere → lines across the motion. Wide ring 100–250 mm, 20°: at most
-    /// (87.3/150)² = 0.34 → lines along the motion. 60–120 mm, 45°: 0.62 at the inner radius,
-    /// 2.5 at the outer → points.
+    /// The smoother chosen for a sector of `inner`–`outer` m and `arc_deg` on 65 × 65 nodes.
+    fn chosen(inner_radius: f64, outer_radius: f64, arc_deg: f64) -> Smoother {
+        assembled(inner_radius, outer_radius, arc_deg)
+            .mg
+            .h
+            .use_lines
+    }
+
     /// The single-precision hierarchy stores the operator multiplied by a power of two (so
     /// the scaling itself rounds nothing) that brings the mean diagonal near one: far from
     /// the bottom of the `f32` range (1.2e-38 for normal numbers, IEEE 754 binary32), where
     /// squared residuals of conductances near 1e-13 m³/(Pa·s) would otherwise land.
     #[test]
     fn single_precision_operator_is_scaled_to_unit_diagonal() {
-        let o = PadOutline::Sector {
-            inner_radius: 0.06,
-            outer_radius: 0.12,
-            arc: 45f64.to_radians(),
-        };
-        let frame = PadFrame::new(o, RunnerSpeed::Angular(314.0)).unwrap();
-        let support = Support::TiltingPoint {
-            offset_along: 0.6,
-            offset_across: 0.5,
-        };
-        let film = FilmModel::new(o, support).unwrap();
-        let grid = Grid::new(65, 65, None).unwrap();
-        let mut s = ReynoldsSolver::new(frame, film, grid, ReynoldsSettings::default());
-        let state = FilmState {
-            reference: 30e-6,
-            pitch: 2e-4,
-            roll: 0.0,
-            crown: 0.0,
-        };
-        s.assemble(&state, &vec![0.02; 65 * 65]).unwrap();
+        let mut s = assembled(0.06, 0.12, 45.0);
         let mg = &mut s.mg;
         mg.load_single();
         let k = mg.h32.scale;
@@ -2437,6 +2421,12 @@ mod tests {
         }
     }
 
+    /// With equal node counts and a nearly uniform film, a cell's η- to ξ-conductance ratio is
+    /// the square of its aspect ratio `(r Δθ / Δr)²` (five-point finite volumes; a geometric
+    /// fact of the discretisation). Narrow sector 100–120 mm, 20°: at least (34.9/20)² = 3.0
+    /// everywhere → lines across the motion. Wide ring 100–250 mm, 20°: at most
+    /// (87.3/150)² = 0.34 → lines along the motion. 60–120 mm, 45°: 0.62 at the inner radius,
+    /// 2.5 at the outer → points.
     #[test]
     fn smoother_follows_the_dominant_coupling() {
         assert_eq!(chosen(0.10, 0.12, 20.0), Smoother::EtaLines);
