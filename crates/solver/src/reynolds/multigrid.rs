@@ -702,6 +702,12 @@ impl Multigrid {
     /// still far above the tolerance (a design step rather than a small move), full multigrid
     /// on the residual equation corrects it ([`Multigrid::full_multigrid_correction`]) before
     /// the cycles.
+    ///
+    /// With [`CycleSettings::mixed_precision`] full multigrid and the cycles run in single
+    /// precision as corrections of the `f64` iterate (iterative refinement: each round forms
+    /// the `f64` residual, [`Multigrid::single_correction`] solves for its correction); the
+    /// tolerance is always checked on the `f64` residual. Projected solves whose iterate
+    /// touches the floor continue with `f64` cycles.
     pub fn solve(
         &mut self,
         floor: Option<f64>,
