@@ -30,7 +30,7 @@
 //!   is odd); that level is solved exactly by banded Cholesky.
 //! * Cold starts use full multigrid: nested iteration from the coarsest level with cubic
 //!   interpolation of each coarse solution.
-//! * Precision: the levels form a [`Hierarchy`] generic over its floating-point type. Besides
+//! * Precision: the levels form a `Hierarchy` generic over its floating-point type. Besides
 //!   the `f64` hierarchy (the solution, projected cycles) an `f32` copy computes corrections
 //!   inside iterative refinement: the residual `r = f − A u` is formed in `f64`, `A e = r`
 //!   is solved approximately by `f32` cycles (full multigrid for cold starts with point
@@ -698,14 +698,14 @@ impl Multigrid {
     /// multigrid (`cold`) or from the current solution. With a floor, the solution satisfies
     /// the cavitation condition `p ≥ floor`.
     ///
-    /// A warm start is first improved by [`Multigrid::project_start`]; if its residual is
+    /// A warm start is first improved by `Multigrid::project_start`; if its residual is
     /// still far above the tolerance (a design step rather than a small move), full multigrid
-    /// on the residual equation corrects it ([`Multigrid::full_multigrid_correction`]) before
+    /// on the residual equation corrects it (`Multigrid::full_multigrid_correction`) before
     /// the cycles.
     ///
     /// With [`CycleSettings::mixed_precision`] full multigrid and the cycles run in single
     /// precision as corrections of the `f64` iterate (iterative refinement: each round forms
-    /// the `f64` residual, [`Multigrid::single_correction`] solves for its correction); the
+    /// the `f64` residual, `Multigrid::single_correction` solves for its correction); the
     /// tolerance is always checked on the `f64` residual. Projected solves whose iterate
     /// touches the floor continue with `f64` cycles.
     pub fn solve(
