@@ -430,8 +430,9 @@ fn warm_start_far_away_is_corrected_by_full_multigrid() {
 /// memory); here κ ≈ 1e4 on 65 × 65 nodes and the rounding of `f32` is 6e-8.
 ///
 /// Checked on three pads (point smoothing; line smoothing along the motion, whose full
-/// multigrid stays in double precision; a crowned pad whose film cavitates, where projected
-/// cycles in double precision finish the solve), at relative residuals 1e-8 and 1e-12: the
+/// multigrid stays in double precision; a crowned pad whose film cavitates, where the
+/// corrections solve a complementarity problem with the bound `e ≥ p_cav − u` node by node),
+/// at relative residuals 1e-8 and 1e-12: the
 /// residual of the mixed-precision pressure, recomputed here with the matrix assembled from
 /// the level, meets the tolerance; the pressure equals faer's sparse Cholesky solution (the
 /// linear pads) or the double-precision solve (the cavitating pad) to the error the tolerance

@@ -31,13 +31,15 @@
 //! * Cold starts use full multigrid: nested iteration from the coarsest level with cubic
 //!   interpolation of each coarse solution.
 //! * Precision: the levels form a `Hierarchy` generic over its floating-point type. Besides
-//!   the `f64` hierarchy (the solution, projected cycles) an `f32` copy computes corrections
-//!   inside iterative refinement: the residual `r = f − A u` is formed in `f64`, `A e = r`
-//!   is solved approximately by `f32` cycles (full multigrid for cold starts with point
-//!   smoothing), and `u + e` is the new iterate, so the tolerance is met in `f64`. Each
-//!   `f32` sweep moves half the bytes. The rounding of `f32` limits the reduction one
-//!   correction can achieve to about `κ(A) · 6e-8` (1e-4 at 129² nodes), far below what the
-//!   few cycles of a round achieve.
+//!   the `f64` hierarchy (the solution) an `f32` copy computes corrections inside iterative
+//!   refinement: the residual `r = f − A u` is formed in `f64`, `A e = r` is solved
+//!   approximately by `f32` cycles (full multigrid for cold starts with point smoothing), and
+//!   `u + e` is the new iterate, so the tolerance is met in `f64`. Where the iterate touches
+//!   the cavitation floor the correction solves the complementarity problem of `e` with the
+//!   per-node bound `e ≥ p_cav − u` (projected multigrid as above, the bound in place of the
+//!   floor). Each `f32` sweep moves half the bytes. The rounding of `f32` limits the
+//!   reduction one correction can achieve to about `κ(A) · 6e-8` (1e-4 at 129² nodes), far
+//!   below what the few cycles of a round achieve.
 
 use super::banded::BandedCholesky;
 use super::real::Real;
@@ -308,6 +310,11 @@ struct Ops<T: Real> {
     f: Vec<T>,
     r: Vec<T>,
     excl: Exclusion<T>,
+    /// Per-node lower bound of `u` (split layout) replacing the uniform floor of a projected
+    /// sweep while `lower_active`: a correction `e` of a projected iterate `u₀` is bounded by
+    /// `p_cav − u₀` (Pa). Allocated at first use.
+    lower: Vec<T>,
+    lower_active: bool,
     /// Factors of the tridiagonal systems along η (one per column, the five-point operator with
     /// its east and west neighbours held): forward multipliers `g_j = c_n(j − 1)/β_{j − 1}` and
     /// inverse pivots `1/β_j`, split layout.
@@ -351,6 +358,8 @@ impl<T: Real> Ops<T> {
             f: vec![T::ZERO; n],
             r: vec![T::ZERO; n],
             excl: Exclusion::new(n),
+            lower: Vec::new(),
+            lower_active: false,
             line_g: vec![T::ZERO; n],
             line_ib: vec![T::ZERO; n],
             wl,
@@ -373,17 +382,22 @@ impl<T: Real> Ops<T> {
             f,
             r,
             excl,
+            lower,
+            lower_active,
             line_g,
             line_ib,
             ..
         } = self;
-        let k = Kernel::new(*lay, ce, cn, id, d, f, excl, line_g, line_ib, corrected);
+        let mut k = Kernel::new(*lay, ce, cn, id, d, f, excl, line_g, line_ib, corrected);
+        if *lower_active {
+            k.lower = lower;
+        }
         (k, u, r)
     }
 
     /// The read-only operator data of the level as a [`Kernel`], as in [`Ops::parts`].
     fn kernel(&self, corrected: bool) -> Kernel<'_, T> {
-        Kernel::new(
+        let mut k = Kernel::new(
             self.lay,
             &self.ce,
             &self.cn,
@@ -394,7 +408,23 @@ impl<T: Real> Ops<T> {
             &self.line_g,
             &self.line_ib,
             corrected,
-        )
+        );
+        if self.lower_active {
+            k.lower = &self.lower;
+        }
+        k
+    }
+
+    /// Clips `u` at the floor of a projected sweep: the per-node lower bound if active,
+    /// otherwise `fl`.
+    fn clip(&mut self, fl: T) {
+        if self.lower_active {
+            for (x, &l) in self.u.iter_mut().zip(&self.lower) {
+                *x = x.max_of(l);
+            }
+        } else {
+            self.u.iter_mut().for_each(|x| *x = x.max_of(fl));
+        }
     }
 
     /// Copies the level's operator into split layout; for line smoothing, also factorises the
@@ -502,12 +532,14 @@ pub struct CycleSettings {
     /// short along the motion and wide across it); line smoothing keeps about three cycles
     /// after full multigrid there.
     pub lines: bool,
-    /// Compute the corrections of unconstrained solves in single precision (`f32`) inside
+    /// Compute the corrections of pressure solves in single precision (`f32`) inside
     /// iterative refinement: full multigrid and every cycle run on `f32` copies of the
     /// operators, and the residual that drives each correction is formed in `f64`, so the
-    /// solution reaches the same `f64` tolerance. A single-precision sweep moves half the
-    /// bytes; the rounding of `f32` limits what one correction can achieve (about 1e-4 of the
-    /// residual it starts from at 129² nodes), well below what two cycles achieve.
+    /// solution reaches the same `f64` tolerance (with cavitation, the correction is bounded
+    /// node by node so that the iterate stays at or above the floor). A single-precision
+    /// sweep moves half the bytes; the rounding of `f32` limits what one correction can
+    /// achieve (about 1e-4 of the residual it starts from at 129² nodes), well below what
+    /// two cycles achieve.
     pub mixed_precision: bool,
 }
 
@@ -706,8 +738,8 @@ impl Multigrid {
     /// With [`CycleSettings::mixed_precision`] full multigrid and the cycles run in single
     /// precision as corrections of the `f64` iterate (iterative refinement: each round forms
     /// the `f64` residual, `Multigrid::single_correction` solves for its correction); the
-    /// tolerance is always checked on the `f64` residual. Projected solves whose iterate
-    /// touches the floor continue with `f64` cycles.
+    /// tolerance is always checked on the `f64` (projected) residual. Where the iterate
+    /// touches the floor the rounds are projected, with the bound `e ≥ p_cav − u` per node.
     pub fn solve(
         &mut self,
         floor: Option<f64>,
@@ -753,20 +785,26 @@ impl Multigrid {
         let mut cycles = 0;
         if mixed {
             // Iterative refinement: the residual of the iterate in f64, its correction by f32
-            // cycles, while the iterate stays off the cavitation floor (the projected cycles
-            // below take over if it touches it). A round usually meets the tolerance; a
-            // second one follows where single precision limits it (tight tolerances). A round
-            // that ends before its first cycle without meeting the tolerance (an estimate
-            // misled by rounding) hands over to the double-precision cycles.
+            // cycles (projected where the iterate touches the cavitation floor). A round
+            // usually meets the tolerance; a second one follows where single precision limits
+            // it (tight tolerances). A round that ends before its first cycle without meeting
+            // the tolerance (an estimate misled by rounding) hands over to the double-precision
+            // cycles below.
             let mut stalled = false;
             loop {
                 let o = &mut self.h.ops[0];
-                let sum = if residual_known {
+                let mut sum = if residual_known {
                     sum_sq(&o.r)
                 } else {
                     residual(o, false)
                 };
                 residual_known = true;
+                // Where the iterate touches the floor the measure is the projected residual,
+                // and the round is projected.
+                let projected = floor.filter(|&fl| touches_floor(o, fl));
+                if let Some(fl) = projected {
+                    sum = projected_sum_sq(o, fl);
+                }
                 let rel = sum.sqrt() / bnorm;
                 if rel <= tolerance || cycles >= max_cycles || !rel.is_finite() {
                     return self.finish(
@@ -778,10 +816,11 @@ impl Multigrid {
                         },
                     );
                 }
-                if stalled || floor.is_some_and(|fl| touches_floor(o, fl)) {
+                if stalled {
                     break;
                 }
-                let used = self.single_correction(tolerance * bnorm, max_cycles - cycles);
+                let used =
+                    self.single_correction(tolerance * bnorm, max_cycles - cycles, projected);
                 cycles += used;
                 stalled = used == 0;
                 residual_known = false;
@@ -1027,7 +1066,7 @@ impl Multigrid {
     /// reduction single precision can deliver ([`single_precision_reach`]) from the first
     /// estimate, or stops falling by half per cycle; at most `budget` cycles. Returns the
     /// number of cycles.
-    fn single_correction(&mut self, tolerance: f64, budget: usize) -> usize {
+    fn single_correction(&mut self, tolerance: f64, budget: usize, floor: Option<f64>) -> usize {
         self.load_single();
         let k = self.h32.scale;
         let o64 = &self.h.ops[0];
@@ -1036,12 +1075,22 @@ impl Multigrid {
             *d = f32::of(x * k);
         }
         o32.u.fill(0.0);
+        // Projected: the correction keeps the iterate at or above the floor, `e ≥ p_cav − u`
+        // node by node (Pa); the uniform floor passed on only marks the sweeps as projected.
+        if let Some(fl) = floor {
+            o32.lower.resize(o64.u.len(), 0.0);
+            for (l, &x) in o32.lower.iter_mut().zip(&o64.u) {
+                *l = f32::of(fl - x);
+            }
+            o32.lower_active = true;
+        }
+        let projected = floor.map(|_| 0.0f32);
         let reach = single_precision_reach(o64.lay.len());
         let mut target = ESTIMATE_MARGIN * tolerance;
         let mut used = 0;
         let mut last = f64::INFINITY;
         while used < budget {
-            let est = self.h32.smooth_residual_top(0, None, TopPass::Smooth) / k;
+            let est = self.h32.smooth_residual_top(0, projected, TopPass::Smooth) / k;
             if used == 0 {
                 target = target.max(reach * est);
             }
@@ -1049,12 +1098,17 @@ impl Multigrid {
                 break;
             }
             last = est;
-            self.h32.cycle_from_residual(&self.levels, 0, None);
+            self.h32.cycle_from_residual(&self.levels, 0, projected);
             used += 1;
         }
+        self.h32.ops[0].lower_active = false;
         let o = &mut self.h.ops[0];
         for (x, &e) in o.u.iter_mut().zip(&self.h32.ops[0].u) {
             *x += e.f64();
+        }
+        if let Some(fl) = floor {
+            // The bounds were rounded to f32: the sum may lie a rounding below the floor.
+            o.u.iter_mut().for_each(|x| *x = x.max_of(fl));
         }
         used
     }
@@ -1081,6 +1135,12 @@ struct Hierarchy<T: Real> {
     scale: f64,
     /// How the unconstrained levels are smoothed (decided at assembly).
     use_lines: Smoother,
+    /// Whether the coarse levels' exclusions (and the masked factorisation of the coarsest)
+    /// were built from the finest level's current exclusion mask with the current operators:
+    /// a cycle whose fine mask did not change reuses them instead of coarsening again.
+    excl_reusable: bool,
+    /// Set for the duration of a cycle that reuses them.
+    reusing: bool,
 }
 
 impl<T: Real> Hierarchy<T> {
@@ -1097,6 +1157,8 @@ impl<T: Real> Hierarchy<T> {
             nat_b: vec![0.0; coarsest],
             cycle: CycleSettings::default(),
             use_lines: Smoother::Points,
+            excl_reusable: false,
+            reusing: false,
             scale: 1.0,
         }
     }
@@ -1105,6 +1167,7 @@ impl<T: Real> Hierarchy<T> {
     /// factorises the coarsest level.
     fn load(&mut self, levels: &[Level], lines: Smoother) {
         self.use_lines = lines;
+        self.excl_reusable = false;
         self.scale = 1.0;
         for (l, o) in levels.iter().zip(&mut self.ops) {
             o.load(l, lines);
@@ -1117,6 +1180,7 @@ impl<T: Real> Hierarchy<T> {
     /// [`Hierarchy::scale`]), and its coarsest factorisation.
     fn load_scaled_from<S: Real>(&mut self, src: &Hierarchy<S>) {
         self.use_lines = src.use_lines;
+        self.excl_reusable = false;
         let d = &src.ops[0].d;
         let mean = d.iter().map(|x| x.f64()).sum::<f64>() / d.len() as f64;
         self.scale = if mean.is_finite() && mean > 0.0 {
@@ -1144,9 +1208,14 @@ impl<T: Real> Hierarchy<T> {
             }
             _ => residual(o, false),
         };
+        if l != 0 {
+            // Full multigrid builds exclusions from other top levels.
+            self.excl_reusable = false;
+        }
         match floor {
             None => {
                 o.excl.active = false;
+                self.excl_reusable = false;
                 sum.sqrt()
             }
             Some(fl) => {
@@ -1154,30 +1223,48 @@ impl<T: Real> Hierarchy<T> {
                 // Usually no interior node touches the floor (converging films): then the
                 // projected residual is the plain one and nothing is excluded (the mask is
                 // only read while the exclusion is active).
-                if !touches_floor(o, fl) {
+                if !o.lower_active && !touches_floor(o, fl) {
                     o.excl.active = false;
+                    self.excl_reusable = false;
                     return sum.sqrt();
                 }
                 // Cavitated nodes that stay cavitated (at the floor with a residual that would
                 // lower them) take no coarse correction, and their projected residual is zero:
                 // it is set to zero here, so that `r` is the projected residual.
+                // The mask of the edge nodes stays false; `changed` records whether any interior
+                // entry differs from the mask the coarse exclusions were built from.
                 let mut any = false;
-                o.excl.mask.fill(false);
+                let mut changed = !o.excl.active;
                 for j in 1..lay.ny {
                     for (part_even, off) in [(true, 0), (false, lay.he)] {
                         let (m0, m1, _, _) = half_row(&lay, part_even);
                         let range = j * lay.w + off + m0..j * lay.w + off + m1.max(m0);
                         let (u, r) = (&o.u[range.clone()], &mut o.r[range.clone()]);
-                        let mask = &mut o.excl.mask[range];
-                        for ((&x, rk), m) in u.iter().zip(r.iter_mut()).zip(mask.iter_mut()) {
-                            let a = (x <= fl) & (*rk <= T::ZERO);
-                            *m = a;
-                            *rk = if a { T::ZERO } else { *rk };
-                            any |= a;
+                        let mask = &mut o.excl.mask[range.clone()];
+                        let nodes = u.iter().zip(r.iter_mut()).zip(mask.iter_mut());
+                        if o.lower_active {
+                            for (((&x, rk), m), &lb) in nodes.zip(&o.lower[range]) {
+                                let a = (x <= lb) & (*rk <= T::ZERO);
+                                changed |= *m != a;
+                                *m = a;
+                                *rk = if a { T::ZERO } else { *rk };
+                                any |= a;
+                            }
+                        } else {
+                            for ((&x, rk), m) in nodes {
+                                let a = (x <= fl) & (*rk <= T::ZERO);
+                                changed |= *m != a;
+                                *m = a;
+                                *rk = if a { T::ZERO } else { *rk };
+                                any |= a;
+                            }
                         }
                     }
                 }
                 o.excl.active = any;
+                if changed || !any {
+                    self.excl_reusable = false;
+                }
                 sum_sq(&o.r).sqrt()
             }
         }
@@ -1203,7 +1290,7 @@ impl<T: Real> Hierarchy<T> {
                 interpolate_cubic(&mut fo[l], xi, eta, &co[0].u, &mut self.row);
             }
             if let Some(fl) = floor {
-                self.ops[l].u.iter_mut().for_each(|x| *x = x.max_of(fl));
+                self.ops[l].clip(fl);
             }
             self.smooth_residual_top(l, floor, TopPass::Smooth);
             self.cycle_from_residual(levels, l, floor);
@@ -1213,14 +1300,21 @@ impl<T: Real> Hierarchy<T> {
     /// Completes a cycle on top level `top` whose residual (and, if projected, exclusion) has
     /// just been computed by [`Hierarchy::smooth_residual_top`].
     fn cycle_from_residual(&mut self, levels: &[Level], top: usize, floor: Option<T>) {
-        for o in &mut self.ops[top + 1..] {
-            o.excl.active = false;
+        self.reusing = self.excl_reusable && top == 0;
+        if !self.reusing {
+            for o in &mut self.ops[top + 1..] {
+                o.excl.active = false;
+            }
         }
         if top == levels.len() - 1 {
             self.solve_coarsest(levels, floor, true);
+            self.excl_reusable = false;
+            self.reusing = false;
             return;
         }
         self.correct(levels, top, top, floor);
+        self.excl_reusable = top == 0 && self.ops[0].excl.active;
+        self.reusing = false;
     }
 
     /// Restricts the residual of `l` (already computed), corrects from the coarser levels and
@@ -1235,7 +1329,9 @@ impl<T: Real> Hierarchy<T> {
         {
             let (fo, co) = self.ops.split_at_mut(l + 1);
             let (fine, coarse) = (&fo[l], &mut co[0]);
-            if fine.excl.active {
+            if self.reusing {
+                // The coarse exclusion of the last cycle stands (the fine mask is unchanged).
+            } else if fine.excl.active {
                 coarsen_exclusion(fine, l == top, &levels[l + 1], self.scale, coarse);
             } else {
                 coarse.excl.active = false;
@@ -1317,7 +1413,7 @@ impl<T: Real> Hierarchy<T> {
                 if o.u.iter().all(|&x| x == T::ZERO) {
                     self.coarse.solve(lvl, &self.nat_b, &mut self.nat_a);
                     lay.to_split(&self.nat_a, &mut o.u);
-                    o.u.iter_mut().for_each(|x| *x = x.max_of(fl));
+                    o.clip(fl);
                 }
                 let sweeps = 4 * (lay.nx + lay.ny);
                 smooth(o, sweeps, Some(fl), T::ONE, false, false, Smoother::Points);
@@ -1333,7 +1429,9 @@ impl<T: Real> Hierarchy<T> {
                         idn[j * lay.w + i] = o.excl.inv_diag[k].f64() * self.scale;
                     }
                 }
-                self.coarse_masked.factor_masked(lvl, Some(&mask), &idn);
+                if !self.reusing {
+                    self.coarse_masked.factor_masked(lvl, Some(&mask), &idn);
+                }
                 self.coarse_masked.solve(lvl, &self.nat_b, &mut self.nat_a);
                 lay.to_split(&self.nat_a, &mut o.u);
             }
@@ -1343,6 +1441,17 @@ impl<T: Real> Hierarchy<T> {
             }
         }
     }
+}
+
+/// `Σ r²` of the level's residual `r` (m³/s) projected on the cavitation condition: nodes at or
+/// below the floor `fl` (Pa) whose residual would lower them further count zero.
+fn projected_sum_sq<T: Real>(o: &Ops<T>, fl: T) -> f64 {
+    let mut sum = T::ZERO;
+    for (&x, &r) in o.u.iter().zip(&o.r) {
+        let free = !((x <= fl) & (r <= T::ZERO));
+        sum += if free { r * r } else { T::ZERO };
+    }
+    sum.f64()
 }
 
 /// Whether any interior node of the level's iterate is at or below the cavitation floor (only
@@ -1549,6 +1658,8 @@ struct Kernel<'a, T: Real> {
     d: &'a [T],
     f: &'a [T],
     mask: &'a [bool],
+    /// Per-node lower bound replacing the uniform floor (empty: the uniform floor).
+    lower: &'a [T],
     line_g: &'a [T],
     line_ib: &'a [T],
 }
@@ -1596,15 +1707,26 @@ impl<'a, T: Real> Kernel<'a, T> {
         ahead: impl FnMut(&mut [T], usize),
     ) -> f64 {
         let fl = floor.unwrap_or(T::ZERO);
+        if floor.is_some() && !self.lower.is_empty() {
+            // Per-node bounds: the top level of a projected correction (never corrected).
+            debug_assert!(!corrected);
+            return if res {
+                self.sweep::<true, false, true, true>(u, r, omega, fl, ahead)
+            } else {
+                self.sweep::<true, false, false, true>(u, r, omega, fl, ahead)
+            };
+        }
         match (floor.is_some(), corrected, res) {
-            (false, false, false) => self.sweep::<false, false, false>(u, r, omega, fl, ahead),
-            (true, false, false) => self.sweep::<true, false, false>(u, r, omega, fl, ahead),
-            (false, true, false) => self.sweep::<false, true, false>(u, r, omega, fl, ahead),
-            (true, true, false) => self.sweep::<true, true, false>(u, r, omega, fl, ahead),
-            (false, false, true) => self.sweep::<false, false, true>(u, r, omega, fl, ahead),
-            (true, false, true) => self.sweep::<true, false, true>(u, r, omega, fl, ahead),
-            (false, true, true) => self.sweep::<false, true, true>(u, r, omega, fl, ahead),
-            (true, true, true) => self.sweep::<true, true, true>(u, r, omega, fl, ahead),
+            (false, false, false) => {
+                self.sweep::<false, false, false, false>(u, r, omega, fl, ahead)
+            }
+            (true, false, false) => self.sweep::<true, false, false, false>(u, r, omega, fl, ahead),
+            (false, true, false) => self.sweep::<false, true, false, false>(u, r, omega, fl, ahead),
+            (true, true, false) => self.sweep::<true, true, false, false>(u, r, omega, fl, ahead),
+            (false, false, true) => self.sweep::<false, false, true, false>(u, r, omega, fl, ahead),
+            (true, false, true) => self.sweep::<true, false, true, false>(u, r, omega, fl, ahead),
+            (false, true, true) => self.sweep::<false, true, true, false>(u, r, omega, fl, ahead),
+            (true, true, true) => self.sweep::<true, true, true, false>(u, r, omega, fl, ahead),
         }
     }
 
@@ -1636,6 +1758,7 @@ impl<'a, T: Real> Kernel<'a, T> {
             d,
             f,
             mask,
+            lower: &[],
             line_g,
             line_ib,
         }
@@ -1830,7 +1953,7 @@ impl<'a, T: Real> Kernel<'a, T> {
     /// the result is that of finishing all rows first and sweeping after, for one pass over
     /// memory instead of two.
     #[inline(always)]
-    fn sweep<const FLOOR: bool, const MASK: bool, const RES: bool>(
+    fn sweep<const FLOOR: bool, const MASK: bool, const RES: bool, const LOWER: bool>(
         &self,
         u: &mut [T],
         r: &mut [T],
@@ -1854,11 +1977,11 @@ impl<'a, T: Real> Kernel<'a, T> {
             }
             if j < ny {
                 // Red nodes of row j: the even half on even rows.
-                self.update::<FLOOR, MASK, false>(u, r, j, j % 2 == 0, omega, floor);
+                self.update::<FLOOR, MASK, false, LOWER>(u, r, j, j % 2 == 0, omega, floor);
             }
             let jb = j - 1;
             if jb >= 1 {
-                sum += self.update::<FLOOR, MASK, RES>(u, r, jb, jb % 2 == 1, omega, floor);
+                sum += self.update::<FLOOR, MASK, RES, LOWER>(u, r, jb, jb % 2 == 1, omega, floor);
                 if RES {
                     let row = jb * lay.w;
                     r[row + lay.pos(0, 0)] = T::ZERO;
@@ -1883,7 +2006,7 @@ impl<'a, T: Real> Kernel<'a, T> {
     /// with `FLOOR`; with `RES` the residual of the updated nodes (m³/s) goes to `r` and
     /// `Σ r²` is returned.
     #[inline(always)]
-    fn update<const FLOOR: bool, const MASK: bool, const RES: bool>(
+    fn update<const FLOOR: bool, const MASK: bool, const RES: bool, const LOWER: bool>(
         &self,
         u: &mut [T],
         r: &mut [T],
@@ -1921,6 +2044,7 @@ impl<'a, T: Real> Kernel<'a, T> {
         let idr = &self.id[s..s + n];
         let fr = &self.f[s..s + n];
         let mk: &[bool] = if MASK { &self.mask[s..s + n] } else { &[] };
+        let lw: &[T] = if LOWER { &self.lower[s..s + n] } else { &[] };
         let dr: &[T] = if RES { &self.d[s..s + n] } else { &[] };
         let out: &mut [T] = if RES { &mut r[s..s + n] } else { &mut [] };
         for k in 0..n {
@@ -1932,7 +2056,8 @@ impl<'a, T: Real> Kernel<'a, T> {
             let gs = sum * idr[k];
             let mut v = me[k] + omega * (gs - me[k]);
             if FLOOR {
-                v = if v < floor { floor } else { v };
+                let fl = if LOWER { lw[k] } else { floor };
+                v = if v < fl { fl } else { v };
             }
             if MASK && mk[k] {
                 v = me[k];
@@ -2110,6 +2235,8 @@ struct Prolong<'a, T: Real> {
     wyr: &'a [T],
     mask: Option<&'a [bool]>,
     floor: Option<T>,
+    /// The fine level's per-node lower bound, if active (replaces `floor`).
+    lower: Option<&'a [T]>,
 }
 
 impl<'a, T: Real> Prolong<'a, T> {
@@ -2136,6 +2263,7 @@ impl<'a, T: Real> Prolong<'a, T> {
             wyr: &fine.wyr,
             mask: use_mask.then_some(&fine.excl.mask[..]),
             floor,
+            lower: (floor.is_some() && fine.lower_active).then_some(&fine.lower[..]),
         }
     }
 
@@ -2181,20 +2309,23 @@ impl<'a, T: Real> Prolong<'a, T> {
                 }
             }
             Some(mk) => {
+                // As above, with zero correction at excluded nodes (selects, not branches).
                 let (me, mo) = mk[row..row + w].split_at(he);
-                for ic in 1..cnx {
-                    if !me[ic] {
-                        ue[ic] += lin[ic];
-                    }
+                for ((x, &c), &m) in ue[1..cnx].iter_mut().zip(&lin[1..cnx]).zip(&me[1..cnx]) {
+                    *x += if m { T::ZERO } else { c };
                 }
+                let (l0, l1) = (&lin[..no], &lin[1..no + 1]);
                 for m in 0..no {
-                    if !mo[m] {
-                        uo[m] += wl[m] * lin[m] + wr[m] * lin[m + 1];
-                    }
+                    let c = wl[m] * l0[m] + wr[m] * l1[m];
+                    uo[m] += if mo[m] { T::ZERO } else { c };
                 }
             }
         }
-        if let Some(f) = self.floor {
+        if let Some(lw) = self.lower {
+            for (x, &l) in urow.iter_mut().zip(&lw[row..row + w]) {
+                *x = x.max_of(l);
+            }
+        } else if let Some(f) = self.floor {
             urow.iter_mut().for_each(|x| *x = x.max_of(f));
         }
     }
@@ -2234,7 +2365,7 @@ fn prolong_smooth<T: Real>(
     if sweeps == 0 || line_path {
         prolong_add(fine, uc, use_mask, row_buf);
         if let Some(fl) = floor {
-            fine.u.iter_mut().for_each(|x| *x = x.max_of(fl));
+            fine.clip(fl);
         }
         smooth(fine, sweeps, floor, omega, corrected, false, lines);
         return;
@@ -2247,9 +2378,15 @@ fn prolong_smooth<T: Real>(
         if let Some(fl) = floor {
             // The edge rows take no correction but are clipped like the others.
             let w = fine.lay.w;
-            let (first, rest) = u.split_at_mut(w);
-            for x in first.iter_mut().chain(rest[(ny - 1) * w..].iter_mut()) {
-                *x = x.max_of(fl);
+            for row in [0, ny] {
+                let ur = &mut u[row * w..(row + 1) * w];
+                if fine.lower_active {
+                    for (x, &l) in ur.iter_mut().zip(&fine.lower[row * w..(row + 1) * w]) {
+                        *x = x.max_of(l);
+                    }
+                } else {
+                    ur.iter_mut().for_each(|x| *x = x.max_of(fl));
+                }
             }
         }
         let ahead = |u: &mut [T], j: usize| p.row(u, j);
