@@ -413,6 +413,7 @@ impl NumericsSpec {
         r.cycle.gamma = self.coarse_grid_visits;
         r.cycle.lines = self.line_smoothing;
         r.cycle.mixed_precision = self.single_precision_corrections;
+        r.cycle.adaptive_omega = self.adaptive_relaxation;
         let e = &mut n.equilibrium;
         e.min_film = um_to_m(positive(
             "numerics.smallest_film_um",
@@ -467,6 +468,7 @@ impl NumericsSpec {
             coarse_grid_visits: n.reynolds.cycle.gamma,
             line_smoothing: n.reynolds.cycle.lines,
             single_precision_corrections: n.reynolds.cycle.mixed_precision,
+            adaptive_relaxation: n.reynolds.cycle.adaptive_omega,
         }
     }
 }

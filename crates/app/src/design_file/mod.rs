@@ -313,6 +313,9 @@ pub struct NumericsSpec {
     /// Multigrid: compute the corrections of pressure solves in single precision inside
     /// iterative refinement (the solution still meets the tolerance in double precision).
     pub single_precision_corrections: bool,
+    /// Multigrid: raise the relaxation factor of point smoothing where cells couple much more
+    /// strongly along the motion than across it (wide rings, small pad arcs).
+    pub adaptive_relaxation: bool,
 }
 
 impl Default for NumericsSpec {

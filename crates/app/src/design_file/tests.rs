@@ -45,6 +45,7 @@ pub(super) const FULL: &str = r#"(
         coarse_grid_visits: 2,
         line_smoothing: false,
         single_precision_corrections: false,
+        adaptive_relaxation: false,
     ),
 )"#;
 
@@ -150,7 +151,7 @@ fn numerics_become_si() {
     let c = n.reynolds.cycle;
     assert_eq!((c.pre_sweeps, c.post_sweeps, c.gamma), (2, 3, 2));
     assert_eq!(c.omega, 1.1);
-    assert!(!c.lines && !c.mixed_precision);
+    assert!(!c.lines && !c.mixed_precision && !c.adaptive_omega);
 }
 
 #[test]
