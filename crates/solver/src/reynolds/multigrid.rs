@@ -69,6 +69,15 @@ enum Smoother {
     XiLines,
 }
 
+/// With [`CycleSettings::adaptive_omega`], lines along ξ are used only where some cell couples
+/// less than this fraction as strongly along η as along ξ (geometrically); otherwise point
+/// smoothing with its raised over-relaxation ([`omega_raise`]) is cheaper. Measured at 129²
+/// nodes (cold solve, work units, lines / points): rectangles 30 × 50 mm (ρ = 0.36) 55 / 34,
+/// 25 × 50 (0.25) 56 / 38, 20 × 50 (0.16) 56 / 53, 15 × 50 (0.09) 55 / 73, 10 × 50 (0.04)
+/// 65 / 238; sectors 150–250 mm, 20° (ρ = 0.27) 55 / 34, 100–200 mm, 25° (0.19) 56 / 44,
+/// 100–250 mm, 25° (0.085) 54 / 62, 100–250 mm, 20° (0.034) 55 / 104.
+const XI_LINES_BELOW: f64 = 0.15;
+
 /// The smallest ratio, over the interior nodes of `level`, of the geometric coupling along η
 /// (north plus south face factors) to the coupling along ξ (east plus west): the square of
 /// the cells' aspect ratio where the film and the viscosity are uniform.
@@ -558,7 +567,9 @@ pub struct CycleSettings {
     /// Gauss–Seidel where one direction dominates the coupling everywhere: along η (radial
     /// lines on a sector) where every node of the finest level couples at least 0.8 times as
     /// strongly along η as along ξ, along ξ (lines in the direction of motion) where every
-    /// node couples at least 1.25 times as strongly along ξ as along η. Point smoothing slows
+    /// node couples at least 1.25 times as strongly along ξ as along η (and, with
+    /// `adaptive_omega`, some cell more than 1/0.15 times as strongly: below that, raised
+    /// over-relaxation makes points cheaper than the serial ξ-lines). Point smoothing slows
     /// down as the cells grow anisotropic (narrow sectors and pads long along the motion; pads
     /// short along the motion and wide across it); line smoothing keeps about three cycles
     /// after full multigrid there.
@@ -715,10 +726,18 @@ impl Multigrid {
                 hmin = h;
             }
         }
-        let lines = if self.cycle.lines {
-            smoother_for(&self.levels[0])
-        } else {
-            Smoother::Points
+        let lines = match self.cycle.lines {
+            false => Smoother::Points,
+            true => match smoother_for(&self.levels[0]) {
+                // With the raised over-relaxation points beat serial lines along ξ unless
+                // some cells couple very strongly along ξ.
+                Smoother::XiLines
+                    if self.cycle.adaptive_omega && self.eta_ratio >= XI_LINES_BELOW =>
+                {
+                    Smoother::Points
+                }
+                chosen => chosen,
+            },
         };
         self.points = lines == Smoother::Points;
         self.h.load(&self.levels, lines);
