@@ -15,6 +15,16 @@ use padwright_solver::geometry::{PadOutline, RunnerSpeed};
 use padwright_solver::reynolds::{ReynoldsSettings, ReynoldsSolver, Start};
 use padwright_validation::pads;
 
+/// Solver settings without cavitation: relative residual `tolerance`, at most `max_cycles`.
+fn linear(tolerance: f64, max_cycles: usize) -> ReynoldsSettings {
+    ReynoldsSettings {
+        tolerance,
+        cavitation: false,
+        max_cycles,
+        ..Default::default()
+    }
+}
+
 /// Assembles the interior five-point matrix of the solver's finest level and its
 /// right-hand side, solves with faer's sparse Cholesky, and returns the full nodal pressure.
 fn direct_solve(solver: &ReynoldsSolver) -> Vec<f64> {
@@ -260,12 +270,7 @@ fn line_smoothing_keeps_anisotropic_cells_fast() {
             arc: f64::to_radians(arc_deg),
         };
         let solve = |lines: bool| {
-            let mut settings = ReynoldsSettings {
-                tolerance: 1e-8,
-                cavitation: false,
-                max_cycles: 300,
-                ..Default::default()
-            };
+            let mut settings = linear(1e-8, 300);
             settings.cycle.lines = lines;
             let mut s = pads::solver(
                 outline,
@@ -588,12 +593,7 @@ fn over_relaxation_follows_the_anisotropy() {
         };
         let mut cycles = [0; 2];
         for (q, adaptive) in [true, false].into_iter().enumerate() {
-            let mut settings = ReynoldsSettings {
-                tolerance: 1e-8,
-                cavitation: false,
-                max_cycles: 100,
-                ..Default::default()
-            };
+            let mut settings = linear(1e-8, 100);
             settings.cycle.adaptive_omega = adaptive;
             let support = Support::TiltingPoint {
                 offset_along: 0.6,
