@@ -57,6 +57,7 @@
 mod d2270_table;
 mod error;
 pub mod grades;
+pub mod table;
 pub mod viscosity_index;
 pub mod walther;
 

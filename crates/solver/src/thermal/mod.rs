@@ -40,6 +40,7 @@ use crate::error::{InputError, SolverError};
 use crate::film::{FilmModel, FilmState};
 use crate::geometry::{positive, within};
 use crate::lubricant::Lubricant;
+use crate::lubricant::table::ViscosityTable;
 use crate::pad::{self, PadIntegrals};
 use crate::reynolds::{ReynoldsSolver, Start};
 use energy::{EnergyBalance, EnergySolver, SurfaceExchange};
@@ -229,7 +230,8 @@ pub struct FieldPad {
     pub solver: ReynoldsSolver,
     /// The energy workspace (face flows, dissipation, temperature).
     pub energy: EnergySolver,
-    lubricant: Lubricant,
+    /// `μ(T)` of the lubricant tabulated over the temperatures the film can reach.
+    viscosity: ViscosityTable,
     settings: FieldSettings,
     mu: Vec<f64>,
     rho_c: f64,
@@ -254,10 +256,16 @@ impl FieldPad {
         let n = solver.grid().len();
         let mu0 = lubricant.dynamic_viscosity_pa_s(t0).map_err(lub)?;
         let energy = EnergySolver::starting_at(vec![t0; n]);
+        // The film is never colder than the coldest surface or supply it meets (heat is only
+        // made in the film), nor hotter than the limit where the analysis stops; the table
+        // covers that range with a few kelvin to spare (relaxed iterates may stray).
+        let surf = settings.exchange();
+        let coldest = t0.min(surf.runner_temperature).min(surf.bath_temperature);
+        let viscosity = ViscosityTable::new(&lubricant, coldest - 5.0, MAX_FILM_TEMPERATURE);
         Ok(FieldPad {
             solver,
             energy,
-            lubricant,
+            viscosity,
             settings,
             mu: vec![mu0; n],
             rho_c,
@@ -411,7 +419,7 @@ impl FieldPad {
         self.state.iterations += 1;
         self.state.thermal_crown = crown;
         for (m, &tk) in self.mu.iter_mut().zip(t) {
-            *m = self.lubricant.dynamic_viscosity_pa_s(tk).map_err(lub)?;
+            *m = self.viscosity.dynamic_viscosity_pa_s(tk).map_err(lub)?;
         }
         Ok(change)
     }
