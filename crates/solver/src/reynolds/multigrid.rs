@@ -1538,9 +1538,26 @@ fn touches_floor<T: Real>(o: &Ops<T>, fl: T) -> bool {
             .any(|&(part_even, off)| {
                 let (m0, m1, _, _) = half_row(&lay, part_even);
                 let a = j * lay.w + off + m0;
-                o.u[a..a + m1.saturating_sub(m0)].iter().any(|&x| x <= fl)
+                any_at_or_below(&o.u[a..a + m1.saturating_sub(m0)], fl)
             })
     })
+}
+
+/// Whether any value of `v` is at or below `fl`: the comparisons of eight values at a time are
+/// or-ed without branches so that they vectorise; the scan stops at the first such block.
+#[inline]
+fn any_at_or_below<T: Real>(v: &[T], fl: T) -> bool {
+    let mut blocks = v.chunks_exact(8);
+    for q in &mut blocks {
+        let mut hit = false;
+        for &x in q {
+            hit |= x <= fl;
+        }
+        if hit {
+            return true;
+        }
+    }
+    blocks.remainder().iter().any(|&x| x <= fl)
 }
 
 /// Builds the exclusion of a coarse level from that of its fine level: a coarse node is
