@@ -61,6 +61,10 @@ pub struct EnergySolver {
     pub area: Vec<f64>,
     /// Film temperature at each node, K.
     pub temperature: Vec<f64>,
+    /// Shear factor `U² A` of each node, m⁴/s² (with `μ/h` the shear dissipation, W).
+    shear: Vec<f64>,
+    /// The pad frame and grid size the areas and shear factors belong to.
+    geometry_of: Option<(PadFrame, usize, usize)>,
     /// The temperature-independent coefficients of the upwind system, see [`ColumnSystem`].
     sys: ColumnSystem,
 }
@@ -128,22 +132,34 @@ impl EnergySolver {
         let (s_span, t_span) = (o.s_span(), o.t_at(1.0) - o.t_at(0.0));
         self.faces.compute(lvl, p);
         self.dissipation.resize(n, 0.0);
-        self.area.resize(n, 0.0);
         if self.temperature.len() != n {
             self.temperature = vec![0.0; n];
         }
         self.sys.y.resize(lvl.grid.ny + 1, 0.0);
         let w = g.nx + 1;
-        for j in 0..=g.ny {
-            let t = o.t_at(g.eta[j]);
-            let u = frame.surface_speed(t);
-            let dt = g.eta_extent(j) * t_span;
-            for i in 0..=g.nx {
-                let k = j * w + i;
-                let da = o.metric(t) * g.xi_extent(i) * s_span * dt;
-                self.area[k] = da;
-                self.dissipation[k] = mu[k] * u * u / h[k] * da;
+        // Areas and the shear factor U² A depend on the geometry only: computed once per
+        // pad frame and grid.
+        let key = (*frame, g.nx, g.ny);
+        if self.geometry_of != Some(key) {
+            self.area.resize(n, 0.0);
+            self.shear.resize(n, 0.0);
+            for j in 0..=g.ny {
+                let t = o.t_at(g.eta[j]);
+                let u = frame.surface_speed(t);
+                let dt = g.eta_extent(j) * t_span;
+                for i in 0..=g.nx {
+                    let k = j * w + i;
+                    let da = o.metric(t) * g.xi_extent(i) * s_span * dt;
+                    self.area[k] = da;
+                    self.shear[k] = u * u * da;
+                }
             }
+            self.geometry_of = Some(key);
+        }
+        // Shear dissipation μ U² A / h of each node.
+        let (mu, h) = (&mu[..n], &h[..n]);
+        for (k, d) in self.dissipation.iter_mut().enumerate() {
+            *d = mu[k] * self.shear[k] / h[k];
         }
         // Pressure-driven dissipation G Δp² of each face, half to each side.
         for j in 0..=g.ny {
@@ -281,16 +297,25 @@ impl EnergySolver {
                     sys.y[j] = prev;
                 }
                 let mut next = 0.0;
-                for j in (0..=ny).rev() {
-                    let k = j * w + i;
-                    let tn = (sys.y[j] + sys.up[k] * next) * sys.inv[k];
-                    change = change.max((tn - t[k]).abs());
-                    t[k] = tn;
-                    next = tn;
+                if backflow {
+                    for j in (0..=ny).rev() {
+                        let k = j * w + i;
+                        let tn = (sys.y[j] + sys.up[k] * next) * sys.inv[k];
+                        change = change.max((tn - t[k]).abs());
+                        t[k] = tn;
+                        next = tn;
+                    }
+                } else {
+                    for j in (0..=ny).rev() {
+                        let k = j * w + i;
+                        let tn = (sys.y[j] + sys.up[k] * next) * sys.inv[k];
+                        t[k] = tn;
+                        next = tn;
+                    }
                 }
             }
             // Without backflow the columns only read upstream temperatures, which were final
-            // when read: the pass was exact.
+            // when read: the pass was exact (and its change is not needed).
             if !backflow || change < 1e-9 {
                 break;
             }
