@@ -203,6 +203,10 @@ impl FilmResponse for IsothermalPad {
         self.solver.relax_tolerance(tol);
     }
 
+    fn full_pressure_tolerance(&self) -> f64 {
+        self.solver.settings.tolerance
+    }
+
     fn respond_forces(
         &mut self,
         state: &FilmState,

@@ -41,6 +41,9 @@ const PRESSURE_TOL_PER_RESIDUAL: f64 = 1e-3;
 const NEWTON_JACOBIAN_PRESSURE_TOL: f64 = 1e-7;
 /// Loosest pressure tolerance of a Newton trial point.
 const MAX_RELAXED_PRESSURE_TOL: f64 = 1e-5;
+/// Relaxed pressure tolerances below this multiple of the full one are replaced by the full
+/// one (see `Counted::relax`).
+const FULL_TOLERANCE_SNAP: f64 = 4.0;
 
 /// Settings of the equilibrium iterations.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -93,6 +96,10 @@ pub trait FilmResponse {
     /// Loosens the pressure solver's tolerance to `tol` for the following responses, or
     /// restores it with `None` (see [`crate::reynolds::ReynoldsSolver::relax_tolerance`]).
     fn relax_pressure_tolerance(&mut self, _tol: Option<f64>) {}
+    /// The pressure solver's full relative-residual tolerance (0 if the model has none).
+    fn full_pressure_tolerance(&self) -> f64 {
+        0.0
+    }
     /// Solves the pad at `state` like [`FilmResponse::respond`] but returns only the load and
     /// moments, for the iterations that need nothing else (cheaper where the model can skip
     /// the other integrals).
@@ -192,8 +199,16 @@ impl<'a, R: FilmResponse> Counted<'a, R> {
         }
     }
 
-    /// Loosens the pressure tolerance of the following evaluations to `tol` (0: full).
+    /// Loosens the pressure tolerance of the following evaluations to `tol` (0: full). A
+    /// tolerance within [`FULL_TOLERANCE_SNAP`] times the full one is taken as full: it costs
+    /// about the same, and a following request for a full solution of the same state then
+    /// costs nothing.
     fn relax(&mut self, tol: f64) {
+        let tol = if tol < FULL_TOLERANCE_SNAP * self.r.full_pressure_tolerance() {
+            0.0
+        } else {
+            tol
+        };
         if tol != self.relaxed {
             self.relaxed = tol;
             self.r.relax_pressure_tolerance((tol > 0.0).then_some(tol));

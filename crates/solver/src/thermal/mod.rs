@@ -492,6 +492,10 @@ impl FilmResponse for FieldPad {
         self.solver.relax_tolerance(tol);
     }
 
+    fn full_pressure_tolerance(&self) -> f64 {
+        self.solver.settings.tolerance
+    }
+
     fn respond_forces(
         &mut self,
         state: &FilmState,
@@ -607,6 +611,10 @@ impl FilmResponse for BulkPad {
 
     fn relax_pressure_tolerance(&mut self, tol: Option<f64>) {
         self.pad.relax_pressure_tolerance(tol);
+    }
+
+    fn full_pressure_tolerance(&self) -> f64 {
+        self.pad.full_pressure_tolerance()
     }
 
     fn complete(&mut self) -> Option<PadIntegrals> {
