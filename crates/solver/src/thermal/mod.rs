@@ -33,6 +33,7 @@
 //! inflows (rare, only where a film diverges) enter at the supply temperature.
 
 pub mod energy;
+pub mod mixing;
 
 use crate::bearing::IsothermalPad;
 use crate::equilibrium::FilmResponse;
@@ -44,6 +45,7 @@ use crate::lubricant::table::ViscosityTable;
 use crate::pad::{self, PadIntegrals};
 use crate::reynolds::{ReynoldsSolver, Start};
 use energy::{EnergyBalance, EnergySolver, SurfaceExchange};
+use mixing::Mixer;
 
 /// Default fraction of the previous pad's trailing-edge oil that enters the next pad
 /// (common practice, no source: values between 0.5 and 0.8 are usual).
@@ -237,9 +239,9 @@ pub struct FieldPad {
     rho_c: f64,
     state: ThermalState,
     residual: Vec<f64>,
+    /// The step of the last renewal, K.
     previous: Vec<f64>,
-    has_previous_residual: bool,
-    omega: f64,
+    mixer: Mixer,
 }
 
 impl FieldPad {
@@ -278,8 +280,7 @@ impl FieldPad {
             },
             residual: vec![0.0; n],
             previous: vec![0.0; n],
-            has_previous_residual: false,
-            omega: 0.5,
+            mixer: Mixer::default(),
         })
     }
 
@@ -366,27 +367,18 @@ impl FieldPad {
                 temperature_c: crate::lubricant::kelvin_to_celsius(MAX_FILM_TEMPERATURE),
             });
         }
-        // Aitken's dynamic relaxation of the vector fixed point: the viscosity feedback makes
-        // plain substitution oscillate (and diverge when the film runs hot).
-        if self.has_previous_residual {
-            let (mut num, mut den) = (0.0, 0.0);
-            for (r, rp) in self.residual.iter().zip(&self.previous) {
-                let d = r - rp;
-                num += rp * d;
-                den += d * d;
-            }
-            if den > 0.0 {
-                self.omega = (-self.omega * num / den).clamp(0.05, 1.0);
-            }
-        }
-        let mut omega = self.omega;
-        if change * omega > MAX_TEMPERATURE_STEP {
-            omega = MAX_TEMPERATURE_STEP / change;
-        }
-        self.previous.clone_from(&self.residual);
-        self.has_previous_residual = true;
-        for (t, r) in self.state.temperature.iter_mut().zip(&self.residual) {
-            *t += omega * r;
+        // Anderson acceleration with Aitken's relaxation (see [`mixing`]): the viscosity
+        // feedback makes plain substitution oscillate (and diverge when the film runs hot).
+        self.mixer
+            .step(&self.state.temperature, &self.residual, &mut self.previous);
+        let largest = self.previous.iter().fold(0.0f64, |m, s| m.max(s.abs()));
+        let limit = if largest > MAX_TEMPERATURE_STEP {
+            MAX_TEMPERATURE_STEP / largest
+        } else {
+            1.0
+        };
+        for (t, s) in self.state.temperature.iter_mut().zip(&self.previous) {
+            *t += limit * s;
         }
         self.energy.temperature.clone_from(&self.state.temperature);
         let t = &self.state.temperature;
@@ -484,8 +476,7 @@ impl FilmResponse for FieldPad {
     }
 
     fn restart_updates(&mut self) {
-        self.has_previous_residual = false;
-        self.omega = 0.5;
+        self.mixer.restart();
     }
 
     fn relax_pressure_tolerance(&mut self, tol: Option<f64>) {
