@@ -72,15 +72,19 @@ impl Mixer {
         debug_assert!(r.len() == n && step.len() == n);
         let norm2 = |v: &[f64]| v.iter().map(|x| x * x).sum::<f64>();
         if let Some((t_prev, r_prev)) = &self.last {
-            let mut d_t: Vec<f64> = Vec::with_capacity(n);
-            let mut d_r: Vec<f64> = Vec::with_capacity(n);
+            // Reuse the storage of the oldest difference once the history is full.
+            let (mut d_t, mut d_r) = if self.dt.len() == DEPTH {
+                (self.dt.pop_front().unwrap(), self.dr.pop_front().unwrap())
+            } else {
+                (vec![0.0; n], vec![0.0; n])
+            };
             let (mut num, mut den) = (0.0, 0.0);
             for k in 0..n {
                 let d = r[k] - r_prev[k];
                 num += r_prev[k] * d;
                 den += d * d;
-                d_t.push(t[k] - t_prev[k]);
-                d_r.push(d);
+                d_t[k] = t[k] - t_prev[k];
+                d_r[k] = d;
             }
             if den > 0.0 {
                 self.beta = (-self.beta * num / den).clamp(0.05, 1.0);
@@ -92,10 +96,6 @@ impl Mixer {
             } else {
                 self.dt.push_back(d_t);
                 self.dr.push_back(d_r);
-                if self.dt.len() > DEPTH {
-                    self.dt.pop_front();
-                    self.dr.pop_front();
-                }
             }
         }
         let gamma = self.coefficients(r);
@@ -106,7 +106,13 @@ impl Mixer {
             }
             step[k] = s;
         }
-        self.last = Some((t.to_vec(), r.to_vec()));
+        match &mut self.last {
+            Some((t_prev, r_prev)) if t_prev.len() == n => {
+                t_prev.copy_from_slice(t);
+                r_prev.copy_from_slice(r);
+            }
+            last => *last = Some((t.to_vec(), r.to_vec())),
+        }
     }
 
     /// Least-squares coefficients `γ` of `min ‖r − ΔR γ‖` over the stored differences (zero
