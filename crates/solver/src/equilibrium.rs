@@ -667,7 +667,9 @@ pub fn tilting_pad<R: FilmResponse>(
         }
         x.a *= 0.8;
     }
-    // Scale the first guess to the load (exact for a rigid isoviscous pad).
+    // Scale the first guess to the load (exact for a rigid isoviscous pad); the scale needs
+    // only a rough pressure.
+    c.relax(MAX_RELAXED_PRESSURE_TOL);
     let first = c.forces(&frame.state(&x), Start::Cold)?;
     if first.load > 0.0 {
         x.ln_h += 0.5 * (first.load / load).ln();
