@@ -240,7 +240,10 @@ mod tests {
         let accelerated = steps_to_converge(true);
         let plain = steps_to_converge(false);
         assert!(accelerated <= 5, "accelerated: {accelerated} steps");
-        assert!(plain > 50 && plain < usize::MAX, "relaxed substitution: {plain} steps");
+        assert!(
+            plain > 50 && plain < usize::MAX,
+            "relaxed substitution: {plain} steps"
+        );
     }
 
     /// Degenerate history (repeated identical residual differences) is dropped, not divided by.
