@@ -117,6 +117,8 @@ impl Mixer {
 
     /// Least-squares coefficients `γ` of `min ‖r − ΔR γ‖` over the stored differences (zero
     /// for the ones dropped as degenerate).
+    // Index loops read best in this small dense Cholesky factorisation.
+    #[allow(clippy::needless_range_loop)]
     fn coefficients(&self, r: &[f64]) -> Vec<f64> {
         let m = self.dr.len();
         let mut gamma = vec![0.0; m];
