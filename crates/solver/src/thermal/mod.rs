@@ -240,7 +240,7 @@ pub struct FieldPad {
     state: ThermalState,
     residual: Vec<f64>,
     /// The step of the last renewal, K.
-    previous: Vec<f64>,
+    step: Vec<f64>,
     mixer: Mixer,
 }
 
@@ -279,7 +279,7 @@ impl FieldPad {
                 ..Default::default()
             },
             residual: vec![0.0; n],
-            previous: vec![0.0; n],
+            step: vec![0.0; n],
             mixer: Mixer::default(),
         })
     }
@@ -370,14 +370,14 @@ impl FieldPad {
         // Anderson acceleration with Aitken's relaxation (see [`mixing`]): the viscosity
         // feedback makes plain substitution oscillate (and diverge when the film runs hot).
         self.mixer
-            .step(&self.state.temperature, &self.residual, &mut self.previous);
-        let largest = self.previous.iter().fold(0.0f64, |m, s| m.max(s.abs()));
+            .step(&self.state.temperature, &self.residual, &mut self.step);
+        let largest = self.step.iter().fold(0.0f64, |m, s| m.max(s.abs()));
         let limit = if largest > MAX_TEMPERATURE_STEP {
             MAX_TEMPERATURE_STEP / largest
         } else {
             1.0
         };
-        for (t, s) in self.state.temperature.iter_mut().zip(&self.previous) {
+        for (t, s) in self.state.temperature.iter_mut().zip(&self.step) {
             *t += limit * s;
         }
         self.energy.temperature.clone_from(&self.state.temperature);
