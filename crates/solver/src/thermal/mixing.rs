@@ -70,6 +70,14 @@ impl Mixer {
     pub fn step(&mut self, t: &[f64], r: &[f64], step: &mut [f64]) {
         let n = t.len();
         debug_assert!(r.len() == n && step.len() == n);
+        if self
+            .last
+            .as_ref()
+            .is_some_and(|(t_prev, _)| t_prev.len() != n)
+        {
+            // A field of another size: nothing to combine with.
+            self.restart();
+        }
         let norm2 = |v: &[f64]| v.iter().map(|x| x * x).sum::<f64>();
         if let Some((t_prev, r_prev)) = &self.last {
             // Reuse the storage of the oldest difference once the history is full.
