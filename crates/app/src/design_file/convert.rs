@@ -398,8 +398,9 @@ impl NumericsSpec {
             "numerics.cavitation_pressure_kpa",
             self.cavitation_pressure_kpa,
             -101.325,
-            1000.0,
-            "a gauge pressure in kPa (−101.325 kPa is a perfect vacuum)",
+            0.0,
+            "a gauge pressure in kPa from −101.325 (a perfect vacuum) to 0: the pad's edges \
+             are at ambient pressure, so the film cannot cavitate above it",
         )?);
         r.cycle.pre_sweeps = self.smoothing_sweeps_before;
         r.cycle.post_sweeps = self.smoothing_sweeps_after;

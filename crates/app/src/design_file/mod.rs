@@ -291,7 +291,8 @@ pub struct NumericsSpec {
     pub max_pressure_cycles: usize,
     /// Apply the Reynolds (Swift–Stieber) cavitation condition.
     pub cavitation: bool,
-    /// Cavitation pressure, kPa gauge.
+    /// Cavitation pressure, kPa gauge, at most 0 (the edges of the pad are at ambient
+    /// pressure).
     pub cavitation_pressure_kpa: f64,
     /// Smallest film the pad may run at; a load needing less is an overload, µm.
     pub smallest_film_um: f64,

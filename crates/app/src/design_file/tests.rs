@@ -155,6 +155,29 @@ fn numerics_become_si() {
 }
 
 #[test]
+fn a_cavitation_pressure_above_ambient_is_refused() {
+    // The pad's edges are held at ambient pressure (0 kPa gauge); a cavitation floor above it
+    // would contradict that boundary condition (physics of the model, no source needed).
+    let above = FULL.replace(
+        "cavitation_pressure_kpa: -30.0",
+        "cavitation_pressure_kpa: 10.0",
+    );
+    assert_ne!(above, FULL);
+    match error(&above) {
+        DesignError::BadValue { field, reason, .. } => {
+            assert_eq!(field, "numerics.cavitation_pressure_kpa");
+            assert!(reason.contains("ambient"), "{reason}");
+        }
+        e => panic!("wrong error {e}"),
+    }
+    let ambient = FULL.replace(
+        "cavitation_pressure_kpa: -30.0",
+        "cavitation_pressure_kpa: 0.0",
+    );
+    assert_eq!(design(&ambient).numerics.reynolds.cavitation_pressure, 0.0);
+}
+
+#[test]
 fn left_out_sections_take_the_solver_defaults() {
     let d = design(MINIMAL);
     assert_eq!(d.numerics, Numerics::default());

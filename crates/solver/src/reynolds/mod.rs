@@ -26,7 +26,8 @@ pub struct ReynoldsSettings {
     pub max_cycles: usize,
     /// Apply the Reynolds (Swift–Stieber) cavitation condition.
     pub cavitation: bool,
-    /// Cavitation pressure, Pa gauge (zero: ambient).
+    /// Cavitation pressure, Pa gauge (zero: ambient). At most zero: the pad's edges hold the
+    /// ambient pressure, and a floor above it would contradict that boundary condition.
     pub cavitation_pressure: f64,
     /// Multigrid cycle parameters.
     pub cycle: CycleSettings,
