@@ -25,7 +25,9 @@
 //!   slows convergence along the cavitation boundary as the grid is refined. Each coarse node
 //!   next to an excluded node therefore carries the distance to the fine boundary as a fraction
 //!   `θ` of its spacing, and its link to the boundary is given the conductance `G/θ` (the
-//!   Shortley–Weller treatment of a Dirichlet boundary between nodes).
+//!   Shortley–Weller treatment of a Dirichlet boundary between nodes). What that leaves (a few
+//!   slowly converging components along the boundary) is removed by combining each projected
+//!   iterate with the two before it for the least residual (`Krylov`).
 //! * Coarsest level: coarsening stops at eight intervals per direction (or where the node count
 //!   is odd); that level is solved exactly by banded Cholesky.
 //! * Cold starts use full multigrid: nested iteration from the coarsest level with cubic
@@ -589,6 +591,13 @@ pub struct CycleSettings {
     /// across the motion to that along it. Seven cycles become five or six at `ρ = 0.27`,
     /// fourteen to seventeen become eight to ten at `ρ = 0.12–0.17`.
     pub adaptive_omega: bool,
+    /// Combine each iterate of projected cycles (where the pressure touches the cavitation
+    /// floor) with the two before it so that the residual is least (Krylov acceleration in
+    /// the manner of Washio & Oosterlee, 1997: exact while the set of cavitated nodes stays
+    /// the same; two passes over the finest vectors per cycle). The projected cycles then converge as
+    /// fast as unconstrained ones (about 0.05–0.07 per cycle instead of 0.10–0.13 on the
+    /// benchmark's cavitating pad), one cycle fewer at 33²–257² nodes.
+    pub accelerate_projected: bool,
 }
 
 impl Default for CycleSettings {
@@ -604,6 +613,7 @@ impl Default for CycleSettings {
             lines: true,
             mixed_precision: true,
             adaptive_omega: true,
+            accelerate_projected: true,
         }
     }
 }
@@ -900,6 +910,8 @@ impl Multigrid {
             }
             from_fmg = false;
         }
+        // Whether the iterates of this loop are being combined (see `Hierarchy::accelerate`).
+        let mut accelerating = false;
         let outcome = loop {
             // Pre-smoothing belongs to the cycle, but the residual after it is that of a valid
             // iterate and comes out of the same pass: check convergence there. A projected warm
@@ -912,7 +924,12 @@ impl Multigrid {
             } else {
                 TopPass::Residual
             };
-            let rel = self.h.smooth_residual_top(0, floor, pass) / bnorm;
+            let mut norm = self.h.smooth_residual_top(0, floor, pass);
+            if floor.is_some() && self.cycle.accelerate_projected {
+                norm = self.h.accelerate(norm, !accelerating, floor);
+                accelerating = true;
+            }
+            let rel = norm / bnorm;
             if rel <= tolerance || cycles >= max_cycles || !rel.is_finite() {
                 break Outcome {
                     cycles,
@@ -1163,7 +1180,11 @@ impl Multigrid {
         let mut used = 0;
         let mut last = f64::INFINITY;
         while used < budget {
-            let est = self.h32.smooth_residual_top(0, projected, TopPass::Smooth) / k;
+            let mut est = self.h32.smooth_residual_top(0, projected, TopPass::Smooth);
+            if projected.is_some() && self.cycle.accelerate_projected {
+                est = self.h32.accelerate(est, used == 0, projected);
+            }
+            let est = est / k;
             if used == 0 {
                 target = target.max(reach * est);
             }
@@ -1214,6 +1235,8 @@ struct Hierarchy<T: Real> {
     excl_reusable: bool,
     /// Set for the duration of a cycle that reuses them.
     reusing: bool,
+    /// Earlier iterates of the top level for the acceleration of projected cycles.
+    krylov: Krylov<T>,
 }
 
 impl<T: Real> Hierarchy<T> {
@@ -1233,6 +1256,7 @@ impl<T: Real> Hierarchy<T> {
             excl_reusable: false,
             reusing: false,
             scale: 1.0,
+            krylov: Krylov::new(n),
         }
     }
 
@@ -1339,6 +1363,31 @@ impl<T: Real> Hierarchy<T> {
                     self.excl_reusable = false;
                 }
                 sum_sq(&o.r).sqrt()
+            }
+        }
+    }
+
+    /// Accelerates the projected cycles on the finest level after [`Hierarchy::smooth_residual_top`]
+    /// (see [`Krylov`]): replaces the iterate `u` (Pa) and its projected residual `r` (m³/s) by
+    /// the combination with the earlier iterates of least residual and returns its norm, or
+    /// returns `fresh` (the norm just measured) when there is nothing to combine with. The
+    /// earlier iterates are forgotten when `restart` is set (the first cycle of a round) or
+    /// when the exclusion changed since the last cycle (the combination is exact only for a
+    /// fixed set of cavitated nodes). A combination that would cross the lower bound of the
+    /// iterate (`bound`, or the per-node bounds of a correction) is clipped there and its
+    /// residual measured again.
+    fn accelerate(&mut self, fresh: f64, restart: bool, bound: Option<T>) -> f64 {
+        if restart || !self.excl_reusable || !self.ops[0].excl.active {
+            self.krylov.restart(&self.ops[0], fresh);
+            return fresh;
+        }
+        match self.krylov.combine(&mut self.ops[0], fresh, bound) {
+            Some(norm) => norm,
+            None => {
+                // Clipped: the residual of the clipped iterate, with its exclusion.
+                let norm = self.smooth_residual_top(0, bound, TopPass::Residual);
+                self.krylov.restart(&self.ops[0], norm);
+                norm
             }
         }
     }
@@ -1516,13 +1565,195 @@ impl<T: Real> Hierarchy<T> {
     }
 }
 
+/// Krylov acceleration of the projected cycles, in the manner of Washio & Oosterlee (Electron.
+/// Trans. Numer. Anal. 6, 1997; Oosterlee & Washio, SIAM J. Sci. Comput. 21, 2000; citation
+/// details from memory): each new
+/// iterate `z` of the finest level (after a cycle and the next pre-smoothing), whose residual
+/// `r_z` the pre-smoothing measured, is replaced by the combination
+/// `y = c₀ z + c₁ y₁ + c₂ y₂` (`c₀ + c₁ + c₂ = 1`) with the two previous (combined) iterates
+/// whose residual `c₀ r_z + c₁ r₁ + c₂ r₂` is least. While the set of cavitated nodes stays the
+/// same, the problem is linear and that residual is exactly the residual of `y`, so no
+/// operator is applied: one pass for two inner products (the others are known from the
+/// previous step) and one pass for the combination. This is a truncated form of GMRES with
+/// the cycle as preconditioner; it removes the few slowly converging error components that
+/// the cavitation boundary leaves (the coarse levels place that boundary only to within a
+/// coarse spacing).
+#[derive(Clone, Debug)]
+struct Krylov<T: Real> {
+    /// Previous iterates `y₁`, `y₂` (Pa) and their residuals (m³/s), finest level, split
+    /// layout.
+    u: [Vec<T>; 2],
+    r: [Vec<T>; 2],
+    /// `‖r₁‖²`, `r₁·r₂`, `‖r₂‖²`.
+    g11: f64,
+    g12: f64,
+    g22: f64,
+    /// How many of them are valid.
+    len: usize,
+}
+
+impl<T: Real> Krylov<T> {
+    fn new(n: usize) -> Self {
+        Krylov {
+            u: [vec![T::ZERO; n], vec![T::ZERO; n]],
+            r: [vec![T::ZERO; n], vec![T::ZERO; n]],
+            g11: 0.0,
+            g12: 0.0,
+            g22: 0.0,
+            len: 0,
+        }
+    }
+
+    /// Forgets the earlier iterates; the current one (residual norm `norm`) becomes the first.
+    fn restart(&mut self, o: &Ops<T>, norm: f64) {
+        self.u[0].copy_from_slice(&o.u);
+        self.r[0].copy_from_slice(&o.r);
+        self.g11 = norm * norm;
+        self.len = 1;
+    }
+
+    /// Replaces `o.u`, `o.r` (residual norm `norm`) by the combination of least residual (see
+    /// [`Krylov`]) and stores it as the newest earlier iterate; returns the norm of its
+    /// residual, or `None` if the combination was clipped at the lower bound (its residual is
+    /// then not known).
+    fn combine(&mut self, o: &mut Ops<T>, norm: f64, bound: Option<T>) -> Option<f64> {
+        let n = o.u.len();
+        let two = self.len >= 2;
+        let (b1, b2) = dots(&o.r[..n], &self.r[0][..n], &self.r[1][..n], two);
+        // Gram matrix of (r_z, r₁, r₂); least ‖Σ cᵢ rᵢ‖ with Σ cᵢ = 1: c = G⁻¹1 / 1ᵀG⁻¹1.
+        let m = if two { 3 } else { 2 };
+        let g = [
+            [norm * norm, b1, b2],
+            [b1, self.g11, self.g12],
+            [b2, self.g12, self.g22],
+        ];
+        let ones = [1.0; 3];
+        let mut c = [1.0, 0.0, 0.0];
+        let mut used = m;
+        while used > 1 {
+            if let Some(x) = solve_gram(&g, &ones, used) {
+                let s: f64 = x[..used].iter().sum();
+                if s.is_finite() && s != 0.0 {
+                    c = [x[0] / s, x[1] / s, if used > 2 { x[2] / s } else { 0.0 }];
+                    break;
+                }
+            }
+            used -= 1;
+        }
+        if used < 2 || c.iter().any(|x| !x.is_finite()) {
+            self.restart(o, norm);
+            return Some(norm);
+        }
+        let ct = [T::of(c[1]), T::of(c[2])];
+        // The new iterate goes into the older buffers, which then become the newer ones.
+        let [u1, u2] = &mut self.u;
+        let [r1, r2] = &mut self.r;
+        let (u, r, lower) = (&mut o.u[..n], &mut o.r[..n], &o.lower);
+        let (u1, u2, r1, r2) = (&u1[..n], &mut u2[..n], &r1[..n], &mut r2[..n]);
+        let clipped = match (o.lower_active, bound, two) {
+            (true, _, true) => combine_into::<T, 2, true>(u, u1, u2, ct, &lower[..n], T::ZERO),
+            (true, _, false) => combine_into::<T, 2, false>(u, u1, u2, ct, &lower[..n], T::ZERO),
+            (false, Some(fl), true) => combine_into::<T, 1, true>(u, u1, u2, ct, &[], fl),
+            (false, Some(fl), false) => combine_into::<T, 1, false>(u, u1, u2, ct, &[], fl),
+            (false, None, true) => combine_into::<T, 0, true>(u, u1, u2, ct, &[], T::ZERO),
+            (false, None, false) => combine_into::<T, 0, false>(u, u1, u2, ct, &[], T::ZERO),
+        };
+        if two {
+            combine_into::<T, 0, true>(r, r1, r2, ct, &[], T::ZERO);
+        } else {
+            combine_into::<T, 0, false>(r, r1, r2, ct, &[], T::ZERO);
+        }
+        let ry = sum_sq(&o.r).sqrt();
+        // Inner products of the new pair (r_y, r₁) from the Gram matrix.
+        let g_y1 = c[0] * b1 + c[1] * self.g11 + c[2] * self.g12;
+        self.g22 = self.g11;
+        self.g12 = g_y1;
+        self.g11 = ry * ry;
+        self.u.swap(0, 1);
+        self.r.swap(0, 1);
+        self.len = 2;
+        if clipped { None } else { Some(ry) }
+    }
+}
+
+/// `(r·r₁, r·r₂)` (the second zero unless `two`), eight lanes per sum so that the loop
+/// vectorises.
+fn dots<T: Real>(r: &[T], r1: &[T], r2: &[T], two: bool) -> (f64, f64) {
+    const L: usize = 8;
+    let dot = |x: &[T], y: &[T]| {
+        let mut acc = [T::ZERO; L];
+        let (xc, yc) = (x.chunks_exact(L), y.chunks_exact(L));
+        let (xt, yt) = (xc.remainder(), yc.remainder());
+        for (a, b) in xc.zip(yc) {
+            for q in 0..L {
+                acc[q] += a[q] * b[q];
+            }
+        }
+        let mut s = T::ZERO;
+        for (&a, &b) in xt.iter().zip(yt) {
+            s += a * b;
+        }
+        acc.iter().map(|v| v.f64()).sum::<f64>() + s.f64()
+    };
+    (dot(r, r1), if two { dot(r, r2) } else { 0.0 })
+}
+
+/// `x ← x + c₁ (x₁ − x) + c₂ (x₂ − x)` (the combination `c₀ x + c₁ x₁ + c₂ x₂` with
+/// `c₀ = 1 − c₁ − c₂`, written so that nodes equal in all three, such as cavitated ones held
+/// at their bound, stay exactly as they are), also written to `x₂`. `BOUND`: 0 none, 1 the
+/// uniform `floor`, 2 the per-node `lower`; the combination is clipped there. Returns whether
+/// any node was clipped. Without `TWO`, `x₂` is only written (`c₂` must be zero).
+fn combine_into<T: Real, const BOUND: u8, const TWO: bool>(
+    x: &mut [T],
+    x1: &[T],
+    x2: &mut [T],
+    c: [T; 2],
+    lower: &[T],
+    floor: T,
+) -> bool {
+    let mut clipped = false;
+    let n = x.len();
+    let (x1, x2) = (&x1[..n], &mut x2[..n]);
+    for i in 0..n {
+        let mut y = x[i] + c[0] * (x1[i] - x[i]);
+        if TWO {
+            y += c[1] * (x2[i] - x[i]);
+        }
+        if BOUND > 0 {
+            let lb = if BOUND == 2 { lower[i] } else { floor };
+            clipped |= y < lb;
+            y = y.max_of(lb);
+        }
+        x[i] = y;
+        x2[i] = y;
+    }
+    clipped
+}
+
 /// `Σ r²` of the level's residual `r` (m³/s) projected on the cavitation condition: nodes at or
 /// below the floor `fl` (Pa) whose residual would lower them further count zero.
+/// Eight independent partial sums, as in [`sum_sq`], so that the loop vectorises.
 fn projected_sum_sq<T: Real>(o: &Ops<T>, fl: T) -> f64 {
-    let mut sum = T::ZERO;
-    for (&x, &r) in o.u.iter().zip(&o.r) {
+    let term = |x: T, r: T| {
         let free = !((x <= fl) & (r <= T::ZERO));
-        sum += if free { r * r } else { T::ZERO };
+        if free { r * r } else { T::ZERO }
+    };
+    let n = o.u.len().min(o.r.len());
+    let (u, r) = (&o.u[..n], &o.r[..n]);
+    let mut acc = [T::ZERO; 8];
+    let (uc, rc) = (u.chunks_exact(8), r.chunks_exact(8));
+    let (ut, rt) = (uc.remainder(), rc.remainder());
+    for (ub, rb) in uc.zip(rc) {
+        for q in 0..8 {
+            acc[q] += term(ub[q], rb[q]);
+        }
+    }
+    let mut sum = T::ZERO;
+    for (&x, &rv) in ut.iter().zip(rt) {
+        sum += term(x, rv);
+    }
+    for a in acc {
+        sum += a;
     }
     sum.f64()
 }
@@ -2651,6 +2882,94 @@ mod tests {
         assert!(d64.iter().sum::<f64>() / (d64.len() as f64) < 1e-9);
         for (&a, &b) in d32.iter().zip(d64) {
             assert_eq!(a, (b * k) as f32);
+        }
+    }
+
+    /// A crowned sector pad pivoted at mid-arc on 65 × 65 nodes (the benchmark's cavitating
+    /// film: it converges, then diverges, and about a quarter of the pad cavitates), solved
+    /// cold to a relative residual of 1e-10 with the given precision and acceleration.
+    fn cavitating(mixed: bool, accelerate: bool) -> (ReynoldsSolver, super::super::SolveReport) {
+        let o = PadOutline::Sector {
+            inner_radius: 0.06,
+            outer_radius: 0.12,
+            arc: 45f64.to_radians(),
+        };
+        let frame = PadFrame::new(o, RunnerSpeed::Angular(314.0)).unwrap();
+        let support = Support::TiltingPoint {
+            offset_along: 0.5,
+            offset_across: 0.5,
+        };
+        let film = FilmModel::new(o, support).unwrap();
+        let mut settings = ReynoldsSettings {
+            tolerance: 1e-10,
+            ..ReynoldsSettings::default()
+        };
+        settings.cycle.mixed_precision = mixed;
+        settings.cycle.accelerate_projected = accelerate;
+        let mut s = ReynoldsSolver::new(frame, film, Grid::new(65, 65, None).unwrap(), settings);
+        let state = FilmState {
+            reference: 25e-6,
+            pitch: 1e-4,
+            roll: 0.0,
+            crown: 15e-6,
+        };
+        let rep = s
+            .solve(&state, &vec![0.02; 65 * 65], crate::reynolds::Start::Cold)
+            .unwrap();
+        (s, rep)
+    }
+
+    /// Krylov acceleration of the projected cycles (Washio & Oosterlee 1997): with the set of
+    /// cavitated nodes fixed the problem is linear, so the residual of the combined iterate
+    /// is the same combination of the known residuals. Checked against the residual recomputed
+    /// here from the assembled matrix (projected: nodes at the floor whose residual would push
+    /// them lower count zero), which the double-precision loop reports without recomputing it:
+    /// agreement to 1e-4 of itself, round-off only (forming `f − A p` rounds by about 1e-16 of
+    /// `‖f‖` per node, some 1e-5 of a residual of 3e-11 `‖f‖`). Accelerated and plain solves reach the
+    /// same complementarity solution (to 1e-7 of the peak: both within a residual of 1e-10, and
+    /// the solution is Lipschitz in the residual with about the operator's condition number,
+    /// ~1e3 at 65²), and the accelerated one in fewer cycles, in either precision (the claim
+    /// the setting makes; measured: 4 against 5–6).
+    #[test]
+    fn accelerated_projected_cycles_reach_the_same_solution_sooner() {
+        for mixed in [false, true] {
+            let (acc, ra) = cavitating(mixed, true);
+            let (plain, rp) = cavitating(mixed, false);
+            assert!(ra.cavitated_nodes > 63 * 63 / 10, "{}", ra.cavitated_nodes);
+            assert!(
+                ra.cycles < rp.cycles,
+                "mixed {mixed}: {} cycles accelerated, {} plain",
+                ra.cycles,
+                rp.cycles
+            );
+            let (p, q) = (acc.pressure(), plain.pressure());
+            let peak = p.iter().fold(0.0f64, |m, &x| m.max(x));
+            let diff = p
+                .iter()
+                .zip(q)
+                .fold(0.0f64, |m, (a, b)| m.max((a - b).abs()));
+            assert!(
+                diff <= 1e-7 * peak,
+                "mixed {mixed}: {diff:e} of peak {peak:e}"
+            );
+            // The reported residual against the residual of the assembled matrix.
+            let (lvl, b) = (acc.level(), acc.rhs());
+            let mut r = vec![0.0; b.len()];
+            lvl.residual(p, b, &mut r);
+            let sum: f64 = p
+                .iter()
+                .zip(&r)
+                .filter(|&(&x, &rk)| !(x <= 0.0 && rk <= 0.0))
+                .map(|(_, &rk)| rk * rk)
+                .sum();
+            let bn = b.iter().map(|x| x * x).sum::<f64>().sqrt();
+            let rel = sum.sqrt() / bn;
+            assert!(rel <= 1e-10, "mixed {mixed}: {rel:e}");
+            assert!(
+                (ra.relative_residual - rel).abs() <= 1e-4 * rel,
+                "mixed {mixed}: reported {:e}, recomputed {rel:e}",
+                ra.relative_residual
+            );
         }
     }
 
