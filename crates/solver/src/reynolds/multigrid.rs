@@ -1256,7 +1256,7 @@ impl<T: Real> Hierarchy<T> {
             excl_reusable: false,
             reusing: false,
             scale: 1.0,
-            krylov: Krylov::new(n),
+            krylov: Krylov::new(),
         }
     }
 
@@ -1593,10 +1593,10 @@ struct Krylov<T: Real> {
 }
 
 impl<T: Real> Krylov<T> {
-    fn new(n: usize) -> Self {
+    fn new() -> Self {
         Krylov {
-            u: [vec![T::ZERO; n], vec![T::ZERO; n]],
-            r: [vec![T::ZERO; n], vec![T::ZERO; n]],
+            u: [Vec::new(), Vec::new()],
+            r: [Vec::new(), Vec::new()],
             g11: 0.0,
             g12: 0.0,
             g22: 0.0,
@@ -1605,7 +1605,14 @@ impl<T: Real> Krylov<T> {
     }
 
     /// Forgets the earlier iterates; the current one (residual norm `norm`) becomes the first.
+    /// The buffers are allocated at the first use (only cavitating solves need them).
     fn restart(&mut self, o: &Ops<T>, norm: f64) {
+        let n = o.u.len();
+        if self.u[0].len() != n {
+            for v in self.u.iter_mut().chain(self.r.iter_mut()) {
+                v.resize(n, T::ZERO);
+            }
+        }
         self.u[0].copy_from_slice(&o.u);
         self.r[0].copy_from_slice(&o.r);
         self.g11 = norm * norm;
