@@ -1373,11 +1373,16 @@ impl<T: Real> Hierarchy<T> {
     /// returns `fresh` (the norm just measured) when there is nothing to combine with. The
     /// earlier iterates are forgotten when `restart` is set (the first cycle of a round) or
     /// when the exclusion changed since the last cycle (the combination is exact only for a
-    /// fixed set of cavitated nodes). A combination that would cross the lower bound of the
+    /// fixed set of cavitated nodes), and not kept while no node is excluded. A combination that would cross the lower bound of the
     /// iterate (`bound`, or the per-node bounds of a correction) is clipped there and its
     /// residual measured again.
     fn accelerate(&mut self, fresh: f64, restart: bool, bound: Option<T>) -> f64 {
-        if restart || !self.excl_reusable || !self.ops[0].excl.active {
+        if !self.ops[0].excl.active {
+            // Nothing cavitated (yet): no combination, and nothing worth storing.
+            self.krylov.len = 0;
+            return fresh;
+        }
+        if restart || !self.excl_reusable || self.krylov.len == 0 {
             self.krylov.restart(&self.ops[0], fresh);
             return fresh;
         }
