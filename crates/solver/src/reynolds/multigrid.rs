@@ -938,11 +938,11 @@ impl Multigrid {
             // nodes to or below the floor is clipped there and measured projected.
             let now = floor.filter(|&fl| touches_floor(&self.h.ops[0], fl));
             let mut norm = self.h.smooth_residual_top(0, now, pass);
-            if let (None, Some(fl)) = (now, floor) {
-                if touches_floor(&self.h.ops[0], fl) {
-                    self.h.ops[0].clip(fl);
-                    norm = self.h.smooth_residual_top(0, floor, TopPass::Residual);
-                }
+            if let (None, Some(fl)) = (now, floor)
+                && touches_floor(&self.h.ops[0], fl)
+            {
+                self.h.ops[0].clip(fl);
+                norm = self.h.smooth_residual_top(0, floor, TopPass::Residual);
             }
             if floor.is_some() && self.cycle.accelerate_projected {
                 norm = self.h.accelerate(norm, !accelerating, floor);
