@@ -1174,8 +1174,11 @@ impl Multigrid {
     /// single-precision residual estimate (measured after each pre-smoothing, which the
     /// correction keeps) is below [`ESTIMATE_MARGIN`] of `tolerance` (m³/s), or below the
     /// reduction single precision can deliver ([`single_precision_reach`]) from the first
-    /// estimate, or stops falling by half per cycle; at most `budget` cycles. Returns the
-    /// number of cycles.
+    /// estimate, or falls by less than a tenth in a cycle (rounding has taken over); at most
+    /// `budget` cycles. Returns the number of cycles. (Stopping already when a cycle did not
+    /// halve the estimate cut the slow projected cycles of short, wide cavitating pads into
+    /// rounds of one or two cycles, each costing a double-precision residual and restarting
+    /// the acceleration: 54 cycles instead of 27 on a 100–250 mm, 10° sector at 65² nodes.)
     fn single_correction(&mut self, tolerance: f64, budget: usize, floor: Option<f64>) -> usize {
         self.load_single();
         let k = self.h32.scale;
@@ -1208,7 +1211,7 @@ impl Multigrid {
             if used == 0 {
                 target = target.max(reach * est);
             }
-            if est <= target || est > 0.5 * last || !est.is_finite() {
+            if est <= target || est > 0.9 * last || !est.is_finite() {
                 break;
             }
             last = est;
@@ -3064,6 +3067,67 @@ mod tests {
             rd.cycles,
             rs.cycles
         );
+    }
+
+    /// A short, wide sector (100–250 mm, 10°) with a crowned film that cavitates over about a
+    /// quarter of the pad: the projected top level is smoothed by points, which converge
+    /// slowly on its cells (coupled 12–70 times more strongly along the motion than across
+    /// it: the square of the cells' aspect ratio, 44/150 mm at the outer radius and 17/150 mm
+    /// at the inner, over equal node counts), 127–128 cycles plain; the acceleration brings that to about 27 in either precision,
+    /// well inside the design files' default limit of 100 (the single-precision rounds keep
+    /// going while each cycle still gains a tenth). Both precisions reach the same
+    /// complementarity solution (to 1e-7 of the peak, both within a residual of 1e-10).
+    #[test]
+    fn short_wide_cavitating_pad_converges_well_inside_the_default_cycle_limit() {
+        let solve = |mixed: bool| {
+            let o = PadOutline::Sector {
+                inner_radius: 0.10,
+                outer_radius: 0.25,
+                arc: 10f64.to_radians(),
+            };
+            let frame = PadFrame::new(o, RunnerSpeed::Angular(314.0)).unwrap();
+            let support = Support::TiltingPoint {
+                offset_along: 0.5,
+                offset_across: 0.5,
+            };
+            let film = FilmModel::new(o, support).unwrap();
+            let mut settings = ReynoldsSettings {
+                tolerance: 1e-10,
+                max_cycles: 100,
+                cavitation: true,
+                ..ReynoldsSettings::default()
+            };
+            settings.cycle.mixed_precision = mixed;
+            let grid = Grid::new(65, 65, None).unwrap();
+            let mut s = ReynoldsSolver::new(frame, film, grid, settings);
+            let state = FilmState {
+                reference: 25e-6,
+                pitch: 0.0,
+                roll: 0.0,
+                crown: 30e-6,
+            };
+            let rep = s
+                .solve(&state, &vec![0.02; 65 * 65], crate::reynolds::Start::Cold)
+                .unwrap();
+            (s, rep)
+        };
+        let (double, rd) = solve(false);
+        let (single, rs) = solve(true);
+        assert!(rd.cavitated_nodes > 63 * 63 / 5, "{}", rd.cavitated_nodes);
+        assert!(
+            rd.cycles <= 40 && rs.cycles <= 40,
+            "{} / {}",
+            rd.cycles,
+            rs.cycles
+        );
+        let (p, q) = (double.pressure(), single.pressure());
+        assert!(p.iter().chain(q).all(|&x| x >= 0.0));
+        let peak = p.iter().fold(0.0f64, |m, &x| m.max(x));
+        let diff = p
+            .iter()
+            .zip(q)
+            .fold(0.0f64, |m, (a, b)| m.max((a - b).abs()));
+        assert!(diff <= 1e-7 * peak, "{diff:e} of {peak:e}");
     }
 
     /// With equal node counts and a nearly uniform film, a cell's η- to ξ-conductance ratio is
