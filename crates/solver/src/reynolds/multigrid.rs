@@ -169,6 +169,11 @@ fn single_precision_reach(nodes: usize) -> f64 {
 /// per cent of the tolerance in the last round); the `f64` check that follows decides.
 const ESTIMATE_MARGIN: f64 = 0.9;
 
+/// A single-precision round whose cycle gains less than half stops when its estimate is within
+/// this multiple of the reduction single precision can deliver ([`single_precision_reach`]):
+/// there the stall is rounding, not a slowly converging cycle.
+const STALL_NEAR_LIMIT: f64 = 4.0;
+
 /// Earlier solutions kept for warm starts.
 const HISTORY: usize = 2;
 
@@ -1179,8 +1184,9 @@ impl Multigrid {
     /// single-precision residual estimate (measured after each pre-smoothing, which the
     /// correction keeps) is below [`ESTIMATE_MARGIN`] of `tolerance` (m³/s), or below the
     /// reduction single precision can deliver ([`single_precision_reach`]) from the first
-    /// estimate, or falls by less than a tenth in a cycle (rounding has taken over); at most
-    /// `budget` cycles. Returns the number of cycles. (Stopping already when a cycle did not
+    /// estimate, or falls by less than a tenth in a cycle, or by less than half within
+    /// [`STALL_NEAR_LIMIT`] of that reduction (rounding has taken over); at most `budget`
+    /// cycles. Returns the number of cycles. (Stopping already when a cycle did not
     /// halve the estimate cut the slow projected cycles of short, wide cavitating pads into
     /// rounds of one or two cycles, each costing a double-precision residual and restarting
     /// the acceleration: 54 cycles instead of 27 on a 100–250 mm, 10° sector at 65² nodes.)
@@ -1205,6 +1211,8 @@ impl Multigrid {
         let projected = floor.map(|_| 0.0f32);
         let reach = single_precision_reach(o64.lay.len());
         let mut target = ESTIMATE_MARGIN * tolerance;
+        // The reduction single precision can deliver, from the first estimate.
+        let mut limit = 0.0;
         let mut used = 0;
         let mut last = f64::INFINITY;
         while used < budget {
@@ -1214,9 +1222,13 @@ impl Multigrid {
             }
             let est = est / k;
             if used == 0 {
-                target = target.max(reach * est);
+                limit = reach * est;
+                target = target.max(limit);
             }
-            if est <= target || est > 0.9 * last || !est.is_finite() {
+            // Rounding has taken over where a cycle gains less than a tenth, or less than half
+            // within a few times the limit.
+            let stalled = est > 0.9 * last || (est > 0.5 * last && est < STALL_NEAR_LIMIT * limit);
+            if est <= target || stalled || !est.is_finite() {
                 break;
             }
             last = est;
