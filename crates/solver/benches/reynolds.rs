@@ -246,6 +246,32 @@ fn paired<F: FnMut()>(mut f: F, unit: &mut Unit, budget: Duration) -> (Duration,
     (tf, tu)
 }
 
+/// Assembles `s` for `state` (viscosity 0.02 Pa·s) and times its cold solve against the work
+/// unit of its own level: the report and the work units.
+fn cold_work_units(
+    s: &mut ReynoldsSolver,
+    state: &FilmState,
+    budget: Duration,
+) -> (padwright_solver::reynolds::SolveReport, f64) {
+    let len = s.grid().len();
+    s.assemble(state, &vec![0.02; len]).unwrap();
+    let mut unit = Unit {
+        lvl: s.level().clone(),
+        p: vec![0.0; len],
+        b: s.rhs().to_vec(),
+        r: vec![0.0; len],
+    };
+    let rep = s.solve_assembled(Start::Cold).unwrap();
+    let (t, tu) = paired(
+        || {
+            s.solve_assembled(Start::Cold).unwrap();
+        },
+        &mut unit,
+        budget,
+    );
+    (rep, t.as_secs_f64() / tu.as_secs_f64())
+}
+
 struct Row {
     n: usize,
     method: &'static str,
@@ -464,26 +490,8 @@ fn main() {
         let mut cells = Vec::new();
         for lines in [true, false] {
             let mut s = shaped_solver(o, n, tilting(), false, lines);
-            s.assemble(&film_state, &vec![0.02; n * n]).unwrap();
-            let mut unit = Unit {
-                lvl: s.level().clone(),
-                p: vec![0.0; n * n],
-                b: s.rhs().to_vec(),
-                r: vec![0.0; n * n],
-            };
-            let rep = s.solve_assembled(Start::Cold).unwrap();
-            let (t, tu) = paired(
-                || {
-                    s.solve_assembled(Start::Cold).unwrap();
-                },
-                &mut unit,
-                budget / 2,
-            );
-            cells.push(format!(
-                "FMG + {} | {:.0}",
-                rep.cycles,
-                t.as_secs_f64() / tu.as_secs_f64()
-            ));
+            let (rep, wu) = cold_work_units(&mut s, &film_state, budget / 2);
+            cells.push(format!("FMG + {} | {wu:.0}", rep.cycles));
         }
         {
             let centre = Support::TiltingPoint {
@@ -497,26 +505,11 @@ fn main() {
                 crown: 20e-6,
             };
             let mut s = shaped_solver(o, n, centre, true, true);
-            s.assemble(&crowned, &vec![0.02; n * n]).unwrap();
-            let mut unit = Unit {
-                lvl: s.level().clone(),
-                p: vec![0.0; n * n],
-                b: s.rhs().to_vec(),
-                r: vec![0.0; n * n],
-            };
-            let rep = s.solve_assembled(Start::Cold).unwrap();
-            let (t, tu) = paired(
-                || {
-                    s.solve_assembled(Start::Cold).unwrap();
-                },
-                &mut unit,
-                budget / 2,
-            );
+            let (rep, wu) = cold_work_units(&mut s, &crowned, budget / 2);
             cells.push(format!(
-                "FMG + {} ({} % cavitated) | {:.0}",
+                "FMG + {} ({} % cavitated) | {wu:.0}",
                 rep.cycles,
                 100 * rep.cavitated_nodes / ((n - 2) * (n - 2)),
-                t.as_secs_f64() / tu.as_secs_f64()
             ));
         }
         shape_table.push_str(&format!(
