@@ -1612,9 +1612,9 @@ impl<T: Real> Hierarchy<T> {
 
 /// Krylov acceleration of the projected cycles, in the manner of Washio & Oosterlee (Electron.
 /// Trans. Numer. Anal. 6, 1997; Oosterlee & Washio, SIAM J. Sci. Comput. 21, 2000; citation
-/// details from memory): each new
-/// iterate `z` of the finest level (after a cycle and the next pre-smoothing), whose residual
-/// `r_z` the pre-smoothing measured, is replaced by the combination
+/// details from memory): each new iterate `z` of the finest level (after a cycle and the next
+/// pre-smoothing), whose residual `r_z` the pre-smoothing measured, is replaced by the
+/// combination
 /// `y = c₀ z + c₁ y₁ + c₂ y₂` (`c₀ + c₁ + c₂ = 1`) with the two previous (combined) iterates
 /// whose residual `c₀ r_z + c₁ r₁ + c₂ r₂` is least. While the set of cavitated nodes stays the
 /// same, the problem is linear and that residual is exactly the residual of `y`, so no
