@@ -604,9 +604,9 @@ pub struct CycleSettings {
     /// Combine each iterate of projected cycles (where the pressure touches the cavitation
     /// floor) with the two before it so that the residual is least (Krylov acceleration in
     /// the manner of Washio & Oosterlee, 1997: exact while the set of cavitated nodes stays
-    /// the same; two passes over the finest vectors per cycle). The projected cycles then converge as
-    /// fast as unconstrained ones (about 0.05–0.07 per cycle instead of 0.10–0.13 on the
-    /// benchmark's cavitating pad), one cycle fewer at 33²–257² nodes.
+    /// the same; two passes over the finest vectors per cycle). The projected cycles then
+    /// converge as fast as unconstrained ones (about 0.05–0.07 per cycle instead of 0.10–0.13
+    /// on the benchmark's cavitating pad), one cycle fewer at 33²–257² nodes.
     pub accelerate_projected: bool,
 }
 
@@ -1407,15 +1407,16 @@ impl<T: Real> Hierarchy<T> {
         }
     }
 
-    /// Accelerates the projected cycles on the finest level after [`Hierarchy::smooth_residual_top`]
-    /// (see [`Krylov`]): replaces the iterate `u` (Pa) and its projected residual `r` (m³/s) by
-    /// the combination with the earlier iterates of least residual and returns its norm, or
-    /// returns `fresh` (the norm just measured) when there is nothing to combine with. The
-    /// earlier iterates are forgotten when `restart` is set (the first cycle of a round) or
-    /// when the exclusion changed since the last cycle (the combination is exact only for a
-    /// fixed set of cavitated nodes), and not kept while no node is excluded. A combination that would cross the lower bound of the
-    /// iterate (`bound`, or the per-node bounds of a correction) is clipped there and its
-    /// residual measured again.
+    /// Accelerates the projected cycles on the finest level after
+    /// [`Hierarchy::smooth_residual_top`] (see [`Krylov`]): replaces the iterate `u` (Pa) and
+    /// its projected residual `r` (m³/s) by the combination with the earlier iterates of least
+    /// residual and returns its norm, or returns `fresh` (the norm just measured) when there
+    /// is nothing to combine with. The earlier iterates are forgotten when `restart` is set
+    /// (the first cycle of a round) or when the exclusion changed since the last cycle (the
+    /// combination is exact only for a fixed set of cavitated nodes), and not kept while no
+    /// node is excluded. A combination that would cross the lower bound of the iterate
+    /// (`bound`, or the per-node bounds of a correction) is clipped there and its residual
+    /// measured again.
     fn accelerate(&mut self, fresh: f64, restart: bool, bound: Option<T>) -> f64 {
         if !self.ops[0].excl.active {
             // Nothing cavitated (yet): no combination, and nothing worth storing.
@@ -3046,12 +3047,12 @@ mod tests {
     /// is the same combination of the known residuals. Checked against the residual recomputed
     /// here from the assembled matrix (projected: nodes at the floor whose residual would push
     /// them lower count zero), which the double-precision loop reports without recomputing it:
-    /// agreement to 1e-4 of itself, round-off only (forming `f − A p` rounds by about 1e-16 of
-    /// `‖f‖` per node, some 1e-5 of a residual of 3e-11 `‖f‖`). Accelerated and plain solves reach the
-    /// same complementarity solution (to 1e-7 of the peak: both within a residual of 1e-10, and
-    /// the solution is Lipschitz in the residual with about the operator's condition number,
-    /// ~1e3 at 65²), and the accelerated one in fewer cycles, in either precision (the claim
-    /// the setting makes; measured: 4 against 5–6).
+    /// agreement to 1e-4 of itself, round-off only (forming `f − A p` rounds by about 1e-16
+    /// of `‖f‖` per node, some 1e-5 of a residual of 3e-11 `‖f‖`). Accelerated and plain
+    /// solves reach the same complementarity solution (to 1e-7 of the peak: both within a
+    /// residual of 1e-10, and the solution is Lipschitz in the residual with about the
+    /// operator's condition number, ~1e3 at 65²), and the accelerated one in fewer cycles, in
+    /// either precision (the claim the setting makes; measured: 4 against 5–6).
     #[test]
     fn accelerated_projected_cycles_reach_the_same_solution_sooner() {
         for mixed in [false, true] {
