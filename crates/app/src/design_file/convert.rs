@@ -415,6 +415,7 @@ impl NumericsSpec {
         r.cycle.lines = self.line_smoothing;
         r.cycle.mixed_precision = self.single_precision_corrections;
         r.cycle.adaptive_omega = self.adaptive_relaxation;
+        r.cycle.accelerate_projected = self.projected_acceleration;
         let e = &mut n.equilibrium;
         e.min_film = um_to_m(positive(
             "numerics.smallest_film_um",
@@ -470,6 +471,7 @@ impl NumericsSpec {
             line_smoothing: n.reynolds.cycle.lines,
             single_precision_corrections: n.reynolds.cycle.mixed_precision,
             adaptive_relaxation: n.reynolds.cycle.adaptive_omega,
+            projected_acceleration: n.reynolds.cycle.accelerate_projected,
         }
     }
 }

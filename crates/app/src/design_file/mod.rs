@@ -317,6 +317,9 @@ pub struct NumericsSpec {
     /// Multigrid: raise the relaxation factor of point smoothing where cells couple much more
     /// strongly along the motion than across it (wide rings, small pad arcs).
     pub adaptive_relaxation: bool,
+    /// Multigrid: where the film cavitates, combine each iterate with the two before it so
+    /// that the residual is least (Krylov acceleration of the projected cycles).
+    pub projected_acceleration: bool,
 }
 
 impl Default for NumericsSpec {

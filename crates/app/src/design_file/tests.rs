@@ -46,6 +46,7 @@ pub(super) const FULL: &str = r#"(
         line_smoothing: false,
         single_precision_corrections: false,
         adaptive_relaxation: false,
+        projected_acceleration: false,
     ),
 )"#;
 
@@ -151,7 +152,7 @@ fn numerics_become_si() {
     let c = n.reynolds.cycle;
     assert_eq!((c.pre_sweeps, c.post_sweeps, c.gamma), (2, 3, 2));
     assert_eq!(c.omega, 1.1);
-    assert!(!c.lines && !c.mixed_precision && !c.adaptive_omega);
+    assert!(!c.lines && !c.mixed_precision && !c.adaptive_omega && !c.accelerate_projected);
 }
 
 #[test]
