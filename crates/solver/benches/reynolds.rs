@@ -402,14 +402,11 @@ fn main() {
         }
 
         // (a) with cavitation active.
-        let mut sc = solver(
-            n,
-            Support::TiltingPoint {
-                offset_along: 0.5,
-                offset_across: 0.5,
-            },
-            true,
-        );
+        let centre = Support::TiltingPoint {
+            offset_along: 0.5,
+            offset_across: 0.5,
+        };
+        let mut sc = solver(n, centre, true);
         sc.assemble(&cavitating_state(), &vec![0.02; n * n])
             .unwrap();
         let rep = sc.solve_assembled(Start::Cold).unwrap();
@@ -433,6 +430,32 @@ fn main() {
         g.bench_function(BenchmarkId::new("(a) multigrid cavitating", n), |bch| {
             bch.iter(|| sc.solve_assembled(Start::Cold).unwrap())
         });
+        // Warm starts on the cavitating pad from the solution of a film 1 % and 0.1 % thinner
+        // (the start touches the floor), as for the linear pad above.
+        for (label, frac) in [
+            ("(a) multigrid, cavitating, warm (1 % film change)", 0.01),
+            ("(a) multigrid, cavitating, warm (0.1 % film change)", 0.001),
+        ] {
+            let start_p = {
+                let mut near = solver(n, centre, true);
+                let mut st = cavitating_state();
+                st.reference *= 1.0 - frac;
+                near.assemble(&st, &vec![0.02; n * n]).unwrap();
+                near.solve_assembled(Start::Cold).unwrap();
+                near.pressure().to_vec()
+            };
+            let mut cycles = 0;
+            let (t, tu) = paired(
+                || {
+                    sc.reset();
+                    sc.set_initial_pressure(&start_p);
+                    cycles = sc.solve_assembled(Start::Warm).unwrap().cycles;
+                },
+                &mut unit,
+                budget,
+            );
+            push(label, format!("{cycles}"), t, tu);
+        }
 
         // (b) red–black SOR.
         let mut p = vec![0.0; b.len()];
