@@ -158,7 +158,8 @@ fn numerics_become_si() {
 #[test]
 fn a_cavitation_pressure_above_ambient_is_refused() {
     // The pad's edges are held at ambient pressure (0 kPa gauge); a cavitation floor above it
-    // would contradict that boundary condition (physics of the model, no source needed).
+    // would contradict that boundary condition (the model's own boundary condition; common
+    // practice, no source).
     let above = FULL.replace(
         "cavitation_pressure_kpa: -30.0",
         "cavitation_pressure_kpa: 10.0",
