@@ -208,7 +208,12 @@ impl FilmModel {
 
     /// Film basis at the pad-local point `(ξ, η)`.
     pub fn basis(&self, xi: f64, eta: f64) -> FilmBasis {
-        let xy = self.outline.position(xi, eta);
+        self.basis_turned(xi, eta, self.outline.turn(xi))
+    }
+
+    /// [`FilmModel::basis`] with `turn` = [`PadOutline::turn`]`(xi)` computed beforehand.
+    fn basis_turned(&self, xi: f64, eta: f64, turn: [f64; 2]) -> FilmBasis {
+        let xy = self.outline.position_turned(xi, eta, turn);
         let d = [xy[0] - self.pivot_xy[0], xy[1] - self.pivot_xy[1]];
         let profile = match self.support {
             Support::TaperedLand {
@@ -248,9 +253,31 @@ pub struct BasisArrays {
 impl BasisArrays {
     /// Evaluates the basis at every point of `points` (pad-local `(ξ, η)`).
     pub fn new(model: &FilmModel, points: impl Iterator<Item = (f64, f64)>) -> Self {
-        let mut b = BasisArrays::default();
+        let n = points.size_hint().0;
+        let mut b = BasisArrays {
+            lead: Vec::with_capacity(n),
+            out: Vec::with_capacity(n),
+            profile: Vec::with_capacity(n),
+            crown: Vec::with_capacity(n),
+        };
+        // Grid points come row by row and share a few distinct ξ: the angle's cosine and sine
+        // once for each, remembered in the order met (a row repeats the previous one's).
+        let mut memo: Vec<(f64, [f64; 2])> = Vec::new();
+        let mut next = 0;
         for (x, e) in points {
-            let v = model.basis(x, e);
+            let turn = if memo.get(next).is_some_and(|m| m.0 == x) {
+                next += 1;
+                memo[next - 1].1
+            } else if let Some(at) = memo.iter().position(|m| m.0 == x) {
+                next = at + 1;
+                memo[at].1
+            } else {
+                let t = model.outline.turn(x);
+                memo.push((x, t));
+                next = memo.len();
+                t
+            };
+            let v = model.basis_turned(x, e, turn);
             b.lead.push(v.lead);
             b.out.push(v.out);
             b.profile.push(v.profile);
@@ -323,6 +350,48 @@ mod tests {
             inner_radius: 0.1,
             outer_radius: 0.2,
             arc: 0.6,
+        }
+    }
+
+    /// The basis arrays compute the sector angle's cosine and sine once per distinct ξ
+    /// (remembered in the order the points come); every point's values must equal the film
+    /// model's own, bit for bit, whether the points come row by row (as from a grid), in an
+    /// order that revisits ξ out of turn, or on a rectangle. Internal consistency, no source.
+    #[test]
+    fn basis_arrays_equal_the_pointwise_basis() {
+        let rect = PadOutline::Rectangle {
+            length: 0.05,
+            width: 0.03,
+        };
+        for outline in [sector(), rect] {
+            let m = FilmModel::new(
+                outline,
+                Support::TiltingPoint {
+                    offset_along: 0.6,
+                    offset_across: 0.5,
+                },
+            )
+            .unwrap();
+            let rows: Vec<(f64, f64)> = (0..5)
+                .flat_map(|j| (0..7).map(move |i| (i as f64 / 6.0, j as f64 / 4.0)))
+                .collect();
+            let shuffled: Vec<(f64, f64)> = (0..35)
+                .map(|k| rows[(k * 11) % 35])
+                .chain([(0.3, 0.1), (0.3, 0.9)])
+                .collect();
+            for points in [rows, shuffled] {
+                let b = BasisArrays::new(&m, points.iter().copied());
+                assert_eq!(b.len(), points.len());
+                for (k, &(x, e)) in points.iter().enumerate() {
+                    let v = m.basis(x, e);
+                    assert_eq!(b.lead_out(k), (v.lead, v.out));
+                    assert_eq!((b.profile[k], b.crown[k]), (v.profile, v.crown));
+                }
+            }
+            assert_eq!(
+                outline.position(0.37, 0.6),
+                outline.position_turned(0.37, 0.6, outline.turn(0.37))
+            );
         }
     }
 

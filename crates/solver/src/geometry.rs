@@ -144,12 +144,27 @@ impl PadOutline {
     /// the shaft axis with its leading edge on the x axis; the rectangle has its leading,
     /// first-side corner at the origin.
     pub fn position(&self, xi: f64, eta: f64) -> [f64; 2] {
-        let t = self.t_at(eta);
+        self.position_turned(xi, eta, self.turn(xi))
+    }
+
+    /// The part of [`PadOutline::position`] that depends on `ξ` alone and costs most: the
+    /// cosine and sine of the sector's angle `arc · ξ` (`[1, 0]` for a rectangle).
+    pub fn turn(&self, xi: f64) -> [f64; 2] {
         match *self {
             PadOutline::Sector { arc, .. } => {
                 let theta = arc * xi;
-                [t * theta.cos(), t * theta.sin()]
+                [theta.cos(), theta.sin()]
             }
+            PadOutline::Rectangle { .. } => [1.0, 0.0],
+        }
+    }
+
+    /// [`PadOutline::position`] with `turn` = [`PadOutline::turn`]`(xi)` computed beforehand,
+    /// m.
+    pub fn position_turned(&self, xi: f64, eta: f64, turn: [f64; 2]) -> [f64; 2] {
+        let t = self.t_at(eta);
+        match *self {
+            PadOutline::Sector { .. } => [t * turn[0], t * turn[1]],
             PadOutline::Rectangle { length, .. } => [length * xi, t],
         }
     }

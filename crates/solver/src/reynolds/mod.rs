@@ -99,12 +99,13 @@ impl ReynoldsSolver {
         let (s_span, t_span) = (o.s_span(), o.t_at(1.0) - o.t_at(0.0));
         let mut node_area = Vec::with_capacity(grid.len());
         let mut node_xy = Vec::with_capacity(grid.len());
+        let turns: Vec<[f64; 2]> = grid.xi.iter().map(|&x| o.turn(x)).collect();
         for j in 0..=grid.ny {
             let t = o.t_at(grid.eta[j]);
-            for i in 0..=grid.nx {
+            for (i, (&xi, &turn)) in grid.xi.iter().zip(&turns).enumerate() {
                 node_area
                     .push(o.metric(t) * grid.xi_extent(i) * s_span * grid.eta_extent(j) * t_span);
-                node_xy.push(o.position(grid.xi[i], grid.eta[j]));
+                node_xy.push(o.position_turned(xi, grid.eta[j], turn));
             }
         }
         let finest = Level::new(&frame, &film, grid);
