@@ -91,6 +91,21 @@ fn f(v: &Value, path: &str) -> f64 {
         .unwrap_or_else(|| panic!("{path} is a number"))
 }
 
+/// Whether the equilibrium of `v` starts from a coarser grid: thermal field model, tilting pad
+/// and a grid that halves to at least 33 nodes per direction (as the solver documents).
+fn expects_coarse_start(v: &Value) -> bool {
+    let halves = |key: &str| {
+        let n = v["solver"][key].as_u64().unwrap();
+        (n - 1).is_multiple_of(2) && (n - 1) / 2 + 1 >= 33
+    };
+    v["design"]["temperature_model"] == "field"
+        && v["design"]["support"]["kind"]
+            .as_str()
+            .is_some_and(|k| k.starts_with("tilting"))
+        && halves("nodes_along")
+        && halves("nodes_across")
+}
+
 /// Whether `path` may be null in the results of `v`: only where a quantity does not apply.
 fn may_be_null(v: &Value, path: &str) -> bool {
     let fixed = matches!(
@@ -118,6 +133,7 @@ fn may_be_null(v: &Value, path: &str) -> bool {
         ".design.thermal_settings.supplied_flow_m3_s" | ".thermal.supplied_flow_m3_s" => {
             not_given("supplied_flow_m3_s")
         }
+        ".solver.coarse_start" => !expects_coarse_start(v),
         _ => false,
     }
 }
@@ -136,6 +152,22 @@ fn json_is_finite_consistent_and_matches_the_library() {
                 Some(x) => assert!(x.is_finite(), "{name}: {path} = {x}"),
                 None => assert!(may_be_null(&v, path), "{name}: {path} is null"),
             }
+        }
+        // The coarse start is reported exactly where it applies, with its work counted.
+        let start = &v["solver"]["coarse_start"];
+        assert_eq!(!start.is_null(), expects_coarse_start(&v), "{name}");
+        if !start.is_null() {
+            let along = v["solver"]["nodes_along"].as_u64().unwrap();
+            assert_eq!(
+                start["nodes_along"].as_u64(),
+                Some((along - 1) / 2 + 1),
+                "{name}"
+            );
+            assert!(start["pressure_solves"].as_u64().unwrap() > 0, "{name}");
+            assert!(
+                start["temperature_renewals"].as_u64().unwrap() > 0,
+                "{name}"
+            );
         }
         let pads = v["bearing"]["pad_count"].as_u64().unwrap() as f64;
         let (total, pad) = (f(&v, "bearing.total_load_n"), f(&v, "pad.load_n"));

@@ -139,9 +139,13 @@ fn main() {
         "thermal tilting equilibrium".into(),
         t,
         format!(
-            "{} pressure solves, {} temperature renewals; cost of {:.1} cold isoviscous solves",
+            "{} pressure solves, {} temperature renewals{}; cost of {:.1} cold isoviscous solves",
             r.stats.pressure_solves,
             r.thermal.as_ref().map_or(0, |th| th.iterations),
+            r.stats.coarse_start.map_or(String::new(), |c| format!(
+                ", started from {} × {} nodes ({} solves, {} renewals there)",
+                c.nodes_along, c.nodes_across, c.pressure_solves, c.temperature_renewals
+            )),
             t.as_secs_f64() / t_solve.as_secs_f64()
         ),
     ));

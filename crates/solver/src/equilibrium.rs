@@ -176,6 +176,32 @@ pub struct Equilibrium {
     pub load_error: f64,
     /// Largest moment about the pivot divided by (load × pad length); zero for fixed pads.
     pub moment_error: f64,
+    /// Jacobian of the tilting equilibrium at the solution, on its active shape variables
+    /// (see [`TiltStart`]); none for fixed pads and for the rigid isoviscous pad.
+    jacobian: Option<SizedJacobian>,
+}
+
+impl Equilibrium {
+    /// A start for the equilibrium of the same pad, under the same load, in a finer or
+    /// otherwise nearby model: this solution's film state and Jacobian.
+    pub fn restart(&self) -> TiltStart {
+        TiltStart {
+            state: self.state,
+            jacobian: self.jacobian,
+        }
+    }
+}
+
+/// Where a tilting-pad equilibrium search starts instead of its own estimate: the film state
+/// and the Jacobian of a nearby solution, as the same pad solved on a coarser grid. The
+/// residual's Jacobian with respect to the dimensionless shape (log pivot film, tilt
+/// and roll relative to the film) depends on the grid only through the discretisation error,
+/// so the search needs no finite differences to begin.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct TiltStart {
+    /// Film state of the nearby solution.
+    pub state: FilmState,
+    jacobian: Option<SizedJacobian>,
 }
 
 /// A response with a count of its pressure solves and a memory of the last one: asking again
@@ -315,6 +341,7 @@ pub fn fixed_pad_at_film<R: FilmResponse>(
         pressure_solves: c.solves,
         load_error: 0.0,
         moment_error: 0.0,
+        jacobian: None,
     })
 }
 
@@ -463,6 +490,7 @@ fn fixed_frozen<R: FilmResponse>(
                 pressure_solves: c.solves,
                 load_error: (integrals.load / load - 1.0).abs(),
                 moment_error: 0.0,
+                jacobian: None,
             });
         }
         if fx > 0.0 {
@@ -565,6 +593,20 @@ struct TiltFrame {
 }
 
 impl TiltFrame {
+    /// The shape of a film state (inverse of [`TiltFrame::state`] for the crown of the frame).
+    fn shape(&self, s: &FilmState) -> Shape {
+        let h = s.reference;
+        Shape {
+            ln_h: h.ln(),
+            a: s.pitch * self.len / h,
+            g: if self.line {
+                0.0
+            } else {
+                s.roll * self.width / h
+            },
+        }
+    }
+
     fn state(&self, x: &Shape) -> FilmState {
         let h = x.ln_h.exp();
         FilmState {
@@ -619,12 +661,86 @@ fn slider_start(pivot_along: f64) -> f64 {
     k / (pivot_along + (1.0 + k) * (1.0 - pivot_along))
 }
 
+/// The wide-slider start shape ([`slider_start`]) with its film kept open over the sector and
+/// its pivot film scaled to the load (exact for a rigid isoviscous pad).
+fn wide_slider_start<R: FilmResponse>(
+    c: &mut Counted<R>,
+    frame: &TiltFrame,
+    load: f64,
+) -> Result<Shape, SolverError> {
+    // Reference pivot film for the shape iteration: a film of the order of the answer keeps
+    // the pressures well scaled. Estimate from the wide slider load at the start shape.
+    let mut x = Shape {
+        ln_h: (20e-6f64).ln(),
+        a: slider_start(frame.pivot.0),
+        g: 0.0,
+    };
+    // The wide-slider start ignores the sector's corners: keep its film open everywhere.
+    for _ in 0..40 {
+        let st = frame.state(&x);
+        if c.r.min_film(&st) >= 0.3 * st.reference {
+            break;
+        }
+        x.a *= 0.8;
+    }
+    // The scale needs only a rough pressure.
+    c.relax(MAX_RELAXED_PRESSURE_TOL);
+    let first = c.forces(&frame.state(&x), Start::Cold)?;
+    if first.load > 0.0 {
+        x.ln_h += 0.5 * (first.load / load).ln();
+    }
+    Ok(x)
+}
+
+/// Lets a coupled model's internal state (temperatures) settle at the start shape `x` and the
+/// load before the first frozen equilibrium, so that the viscosity variation is in the film;
+/// the pivot film follows the load. Settling goes on only while the temperatures still move by
+/// more than a hundred coupling tolerances (5 K at the default): the shape will move anyway,
+/// and the inexact rounds of the equilibrium finish the job for less. The start shape is only
+/// a start: its pressures need no more than a rough solve.
+fn settle<R: FilmResponse>(
+    c: &mut Counted<R>,
+    frame: &TiltFrame,
+    mut x: Shape,
+    load: f64,
+) -> Result<Shape, SolverError> {
+    c.relax(MAX_RELAXED_PRESSURE_TOL);
+    for _ in 0..8 {
+        let i = c.forces(&frame.state(&x), Start::Warm)?;
+        if i.load > 0.0 {
+            x.ln_h += 0.5 * (i.load / load).ln();
+        }
+        let change = c.update()?;
+        if change < 100.0 * c.r.update_tolerance() {
+            break;
+        }
+    }
+    c.relax(0.0);
+    // The rounds that follow are a different fixed-point map: start their relaxation afresh.
+    c.r.restart_updates();
+    Ok(x)
+}
+
 /// Equilibrium of a tilting pad carrying `load` (N), with a mechanical crown `crown` (m).
 pub fn tilting_pad<R: FilmResponse>(
     r: &mut R,
     load: f64,
     crown: f64,
     settings: &EquilibriumSettings,
+) -> Result<Equilibrium, SolverError> {
+    tilting_pad_from(r, load, crown, settings, None)
+}
+
+/// [`tilting_pad`] from a given start (the solution of the same pad on a coarser grid, say)
+/// instead of the wide-slider estimate. A coupled model's internal state should have been
+/// carried over as well (see [`crate::thermal::FieldPad::start_from`]): the search then
+/// renews it once at the start and goes on with the coupling rounds.
+pub fn tilting_pad_from<R: FilmResponse>(
+    r: &mut R,
+    load: f64,
+    crown: f64,
+    settings: &EquilibriumSettings,
+    start: Option<TiltStart>,
 ) -> Result<Equilibrium, SolverError> {
     crate::geometry::positive("pad load", load)?;
     let model = r.film_model().clone();
@@ -651,57 +767,42 @@ pub fn tilting_pad<R: FilmResponse>(
     let scaling = r.scales_inverse_square() && crown == 0.0;
     let mut c = Counted::new(r);
 
-    // Reference pivot film for the shape iteration: a film of the order of the answer keeps
-    // the pressures well scaled. Estimate from the wide slider load at the start shape.
-    let a0 = slider_start(pivot.0);
-    let mut x = Shape {
-        ln_h: (20e-6f64).ln(),
-        a: a0,
-        g: 0.0,
-    };
-    // The wide-slider start ignores the sector's corners: keep its film open everywhere.
-    for _ in 0..40 {
-        let st = frame.state(&x);
-        if c.r.min_film(&st) >= 0.3 * st.reference {
-            break;
-        }
-        x.a *= 0.8;
-    }
-    // Scale the first guess to the load (exact for a rigid isoviscous pad); the scale needs
-    // only a rough pressure.
-    c.relax(MAX_RELAXED_PRESSURE_TOL);
-    let first = c.forces(&frame.state(&x), Start::Cold)?;
-    if first.load > 0.0 {
-        x.ln_h += 0.5 * (first.load / load).ln();
-    }
-
     let mut n_it = 0;
     let coupled = c.r.update_tolerance().is_finite();
-    if coupled {
-        // Let the internal state (temperatures) settle at the start shape and this load
-        // before the first frozen equilibrium, so that the viscosity variation is in the film.
-        // Settling goes on only while the temperatures still move by more than a hundred
-        // coupling tolerances (5 K at the default): the shape will move anyway, and the
-        // inexact rounds below finish the job for less.
-        // The start shape is only a start: its pressures need no more than a rough solve.
-        c.relax(MAX_RELAXED_PRESSURE_TOL);
-        for _ in 0..8 {
-            let i = c.forces(&frame.state(&x), Start::Warm)?;
-            if i.load > 0.0 {
-                x.ln_h += 0.5 * (i.load / load).ln();
+    let mut cache = JacobianCache::default();
+    // The last change of the internal state before the first frozen equilibrium, K (none for
+    // an uncoupled model).
+    let mut settled = 0.0;
+    let x = match start {
+        Some(s) => {
+            let x = frame.shape(&s.state);
+            cache.jac = s.jacobian;
+            if coupled {
+                // The carried-over temperatures belong to the nearby solution: renew them
+                // once from this model's pressure at its shape (a rough pressure suffices),
+                // and solve the first frozen equilibrium as an inexact round for that change.
+                c.relax(MAX_RELAXED_PRESSURE_TOL);
+                c.forces(&frame.state(&x), Start::Warm)?;
+                settled = c.update()?;
+                c.relax(0.0);
             }
-            let change = c.update()?;
-            if change < 100.0 * c.r.update_tolerance() {
-                break;
+            x
+        }
+        None => {
+            let x = wide_slider_start(&mut c, &frame, load)?;
+            if coupled {
+                settle(&mut c, &frame, x, load)?
+            } else {
+                x
             }
         }
-        c.relax(0.0);
-        // The rounds below are a different fixed-point map: start their relaxation afresh.
-        c.r.restart_updates();
-    }
-    let mut cache = JacobianCache::default();
+    };
+    let first = EquilibriumSettings {
+        tolerance: settings.tolerance.max(ROUND_TOLERANCE_PER_KELVIN * settled),
+        ..*settings
+    };
     let mut x = frozen_tilt(
-        &mut c, &frame, x, load, scaling, settings, &mut n_it, &mut cache,
+        &mut c, &frame, x, load, scaling, &first, &mut n_it, &mut cache,
     )?;
     if coupled {
         let mut done = false;
@@ -764,10 +865,11 @@ pub fn tilting_pad<R: FilmResponse>(
     } else {
         integrals.moment_roll.abs() / frame.width
     }) / load;
-    let stiffness = if scaling {
-        2.0 * integrals.load / state.reference
+    let (stiffness, jacobian) = if scaling {
+        (2.0 * integrals.load / state.reference, None)
     } else {
-        tilting_stiffness(&mut c, &frame, &x, load)?
+        let (k, jac) = tilting_stiffness(&mut c, &frame, &x, load)?;
+        (k, Some(jac))
     };
     // Leave the solver holding the equilibrium pressure.
     let integrals = c.eval(&state, Start::Warm)?;
@@ -779,6 +881,7 @@ pub fn tilting_pad<R: FilmResponse>(
         pressure_solves: c.solves,
         load_error: (integrals.load / load - 1.0).abs(),
         moment_error,
+        jacobian,
     })
 }
 
@@ -812,13 +915,13 @@ fn frozen_tilt<R: FilmResponse>(
 /// `−dW/dh_p` with the pad free to tilt (N/m), from the Jacobian of the equilibrium at the
 /// solution: a load change `d ln W` moves the solution by `J⁻¹ (d ln W, 0, 0)`, so
 /// `d ln h_p / d ln W = (J⁻¹)₀₀` and `−dW/dh_p = −W / (h_p (J⁻¹)₀₀)` (for a rigid isoviscous pad
-/// `(J⁻¹)₀₀ = −1/2`, the exact `2W/h_p`).
+/// `(J⁻¹)₀₀ = −1/2`, the exact `2W/h_p`). Returns the Jacobian too, with its size.
 fn tilting_stiffness<R: FilmResponse>(
     c: &mut Counted<R>,
     frame: &TiltFrame,
     x: &Shape,
     load: f64,
-) -> Result<f64, SolverError> {
+) -> Result<(f64, SizedJacobian), SolverError> {
     let vars: &[usize] = if frame.line { &[0, 1] } else { &[0, 1, 2] };
     let i = c.forces(&frame.state(x), Start::Warm)?;
     let f = tilt_residual(&i, frame, load).unwrap_or_default();
@@ -833,7 +936,11 @@ fn tilting_stiffness<R: FilmResponse>(
     let y = solve_small(&jac, &e0, vars.len()).ok_or_else(no)?;
     let h = x.ln_h.exp();
     let k = -i.load / (h * y[0]);
-    if k.is_finite() { Ok(k) } else { Err(no()) }
+    if k.is_finite() {
+        Ok((k, (jac, vars.len())))
+    } else {
+        Err(no())
+    }
 }
 
 /// Residual vector of the tilting equilibrium: `[ln(W/W_t), M_pitch/(W L), M_roll/(W B)]`.
@@ -1028,11 +1135,15 @@ fn scan_pitch<R: FilmResponse>(
 }
 const FILM_RATIO_MIN: f64 = 0.01;
 
+/// A Jacobian of the tilting residual on the active shape variables (the leading `n × n`
+/// block of the array), with `n`.
+type SizedJacobian = ([[f64; 3]; 3], usize);
+
 /// A Jacobian kept between Newton iterations and between the rounds of a coupled
 /// equilibrium (the chord method): recomputed only when it stops giving fast progress.
 #[derive(Clone, Copy, Debug, Default)]
 struct JacobianCache {
-    jac: Option<([[f64; 3]; 3], usize)>,
+    jac: Option<SizedJacobian>,
 }
 
 #[allow(clippy::too_many_arguments)]
@@ -1303,6 +1414,108 @@ mod tests {
             assert_relative_eq!(*xi, e, epsilon = 1e-12);
         }
         assert_relative_eq!(det_small(&a, 3), 18.0, epsilon = 1e-12);
+    }
+
+    /// The shape variables and the film state convert both ways.
+    #[test]
+    fn shape_and_state_are_inverse() {
+        for line in [false, true] {
+            let frame = TiltFrame {
+                len: 0.06,
+                width: 0.05,
+                crown: 3e-6,
+                line,
+                pivot: (0.6, 0.5),
+            };
+            let x = Shape {
+                ln_h: (42e-6f64).ln(),
+                a: 0.8,
+                g: if line { 0.0 } else { -0.15 },
+            };
+            let y = frame.shape(&frame.state(&x));
+            assert_relative_eq!(y.ln_h, x.ln_h, max_relative = 1e-14);
+            assert_relative_eq!(y.a, x.a, max_relative = 1e-14);
+            assert_relative_eq!(y.g, x.g, epsilon = 1e-14);
+        }
+    }
+
+    /// A start from the same pad's solution on the grid with every other node reaches the
+    /// equilibrium a fresh search finds (to the equilibrium tolerance, which moves the pivot
+    /// film by about half its value relatively, W ∝ h⁻²) with fewer pressure solves: the
+    /// coarse Jacobian spares the finite differences. A crowned pad, so that the search is
+    /// over all three shape variables.
+    #[test]
+    fn coarse_solution_starts_the_fine_search() {
+        use crate::bearing::{BearingDesign, Duty, FilmTemperature, IsothermalPad, Numerics};
+        use crate::bearing::{pad_solver, solve_pad};
+        use crate::geometry::{PadOutline, RunnerSpeed};
+        use crate::lubricant::{IsoVg, Lubricant};
+        let design = |n: usize| BearingDesign {
+            pad_count: 6,
+            outline: PadOutline::Sector {
+                inner_radius: 0.05,
+                outer_radius: 0.10,
+                arc: 50f64.to_radians(),
+            },
+            support: Support::TiltingPoint {
+                offset_along: 0.55,
+                offset_across: 0.5,
+            },
+            crown: 8e-6,
+            speed: RunnerSpeed::Angular(300.0),
+            duty: Duty::Load(20e3),
+            lubricant: Lubricant::from_iso_vg(IsoVg::Vg46, 100.0).unwrap(),
+            temperature: FilmTemperature::Effective {
+                temperature: 333.15,
+            },
+            numerics: Numerics {
+                nodes_along: n,
+                nodes_across: n,
+                ..Numerics::default()
+            },
+        };
+        let mu = 0.02;
+        let (coarse, fine) = (design(33), design(65));
+        let mut pad = IsothermalPad::new(pad_solver(&coarse).unwrap(), mu);
+        let start = solve_pad(&mut pad, &coarse).unwrap().restart();
+        assert!(start.jacobian.is_some());
+        let mut pad = IsothermalPad::new(pad_solver(&fine).unwrap(), mu);
+        let fresh = solve_pad(&mut pad, &fine).unwrap();
+        let mut pad = IsothermalPad::new(pad_solver(&fine).unwrap(), mu);
+        let settings = fine.numerics.equilibrium;
+        let started = tilting_pad_from(&mut pad, 20e3 / 6.0, 8e-6, &settings, Some(start)).unwrap();
+        let tol = settings.tolerance;
+        eprintln!(
+            "pivot film {:.6e} / {:.6e} m, pitch {:.6e} / {:.6e}, solves {} / {} (started / fresh)",
+            started.state.reference,
+            fresh.state.reference,
+            started.state.pitch,
+            fresh.state.pitch,
+            started.pressure_solves,
+            fresh.pressure_solves
+        );
+        assert_relative_eq!(
+            started.state.reference,
+            fresh.state.reference,
+            max_relative = tol
+        );
+        assert_relative_eq!(
+            started.state.pitch,
+            fresh.state.pitch,
+            max_relative = 10.0 * tol
+        );
+        assert_relative_eq!(
+            started.state.roll,
+            fresh.state.roll,
+            max_relative = 10.0 * tol
+        );
+        assert!(started.load_error <= tol && started.moment_error <= tol);
+        assert!(
+            started.pressure_solves < fresh.pressure_solves,
+            "{} vs {}",
+            started.pressure_solves,
+            fresh.pressure_solves
+        );
     }
 
     /// The wide-slider start for a pivot at 0.5774 of the length is the optimum film ratio

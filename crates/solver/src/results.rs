@@ -72,6 +72,22 @@ pub struct SolutionStats {
     pub load_error: f64,
     /// Relative moment error at the equilibrium (tilting pads).
     pub moment_error: f64,
+    /// The coarser-grid solution the equilibrium started from (thermal tilting pads), if any.
+    pub coarse_start: Option<CoarseStart>,
+}
+
+/// The solution of the same pad on a coarser grid that a thermal tilting-pad equilibrium
+/// started from (nested iteration); the counts cover every coarser grid involved.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct CoarseStart {
+    /// Nodes along the motion of the next coarser grid.
+    pub nodes_along: usize,
+    /// Nodes across the motion of the next coarser grid.
+    pub nodes_across: usize,
+    /// Pressure solves on the coarser grids.
+    pub pressure_solves: usize,
+    /// Temperature renewals on the coarser grids.
+    pub temperature_renewals: usize,
 }
 
 /// The viscosity the solution used and where it came from.

@@ -169,6 +169,21 @@ pub struct SolverOut {
     pub load_error: f64,
     /// Relative moment error at the equilibrium (0 for fixed pads).
     pub moment_error: f64,
+    /// The coarser-grid solution a thermal tilting-pad equilibrium started from (null if none).
+    pub coarse_start: Option<CoarseStartOut>,
+}
+
+/// The coarser-grid solution an equilibrium started from (its work is not in the counts above).
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct CoarseStartOut {
+    /// Nodes along the motion of the next coarser grid.
+    pub nodes_along: usize,
+    /// Nodes across the motion of the next coarser grid.
+    pub nodes_across: usize,
+    /// Pressure solves on all coarser grids.
+    pub pressure_solves: usize,
+    /// Temperature renewals on all coarser grids.
+    pub temperature_renewals: usize,
 }
 
 /// Pressure and film on the pad grid.
@@ -360,6 +375,12 @@ impl Report {
             pressure_solves: s.pressure_solves,
             load_error: g.f("solver.load_error", s.load_error),
             moment_error: g.f("solver.moment_error", s.moment_error),
+            coarse_start: s.coarse_start.map(|c| CoarseStartOut {
+                nodes_along: c.nodes_along,
+                nodes_across: c.nodes_across,
+                pressure_solves: c.pressure_solves,
+                temperature_renewals: c.temperature_renewals,
+            }),
         };
         let fields = FieldsOut {
             layout: FIELD_LAYOUT,

@@ -315,6 +315,14 @@ pub fn render(r: &Report) -> String {
         "  Equilibrium: {} iterations, {} pressure solves; load error {:.1e}, moment error {:.1e}",
         s.equilibrium_iterations, s.pressure_solves, s.load_error, s.moment_error
     );
+    if let Some(c) = &s.coarse_start {
+        let _ = writeln!(
+            t.0,
+            "  Started from the solution on the {} × {} grid ({} pressure solves and {} \
+             temperature renewals on coarser grids)",
+            c.nodes_along, c.nodes_across, c.pressure_solves, c.temperature_renewals
+        );
+    }
     let _ = writeln!(
         t.0,
         "  ξ runs along the motion from the leading edge (0) to the trailing edge (1); η across \

@@ -60,6 +60,15 @@ impl Mixer {
         *self = Mixer::default();
     }
 
+    /// Forgets the history but keeps the relaxation `beta` (clamped to `[0.05, 1]`) for the
+    /// next plain step: for the same fixed point on another grid, whose feedback is as strong.
+    pub fn restart_relaxed(&mut self, beta: f64) {
+        *self = Mixer {
+            beta: beta.clamp(0.05, 1.0),
+            ..Mixer::default()
+        };
+    }
+
     /// The relaxation of the plain step in force.
     pub fn relaxation(&self) -> f64 {
         self.beta
