@@ -63,8 +63,9 @@ pub struct Level {
     pub he: Vec<f64>,
     /// Film at the north faces, m.
     pub hn: Vec<f64>,
-    /// Dynamic viscosity at the nodes, Pa·s.
-    pub mu: Vec<f64>,
+    /// Dynamic viscosity at the nodes, Pa·s (set through the solver, which also fills the
+    /// coarse levels; read it through [`Level::viscosity`]).
+    pub(crate) mu: Vec<f64>,
     /// The viscosity the face factors below were computed for, Pa·s.
     mu_seen: Vec<f64>,
     /// East-face factor `g_e / (12 μ̄_e)`, 1/(Pa·s) (`μ̄` the mean of the two nodes).
@@ -136,6 +137,11 @@ impl Level {
             fnorth: vec![0.0; n],
             grid,
         }
+    }
+
+    /// Dynamic viscosity at the nodes of the last assembly, Pa·s.
+    pub fn viscosity(&self) -> &[f64] {
+        &self.mu
     }
 
     /// Assembles the face conductances and the diagonal for a film state and a nodal viscosity
