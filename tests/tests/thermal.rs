@@ -345,9 +345,10 @@ fn equilibrium_ends_on_exact_solves() {
 
 /// Nested iteration — starting the search on a grid from the solution on the grid with every
 /// other node (Brandt, Math. Comp. 31 (1977) 333–390, from memory) — changes the path to the
-/// coupled equilibrium, not the equilibrium: the analysis (which starts a thermal tilting pad
-/// on the 65 × 65 default grid from its 33 × 33 solution) agrees with the same pad searched
-/// from the wide-slider start on its own grid. Each answer stops when a renewal changes the
+/// coupled equilibrium, not the equilibrium: the analysis (which starts a thermal pad under a
+/// load on the 65 × 65 default grid from its 33 × 33 solution) agrees with the same pad
+/// searched from scratch on its own grid (tilting pads from the wide-slider start, tapered
+/// lands from the smallest allowed film). Each answer stops when a renewal changes the
 /// film temperature by less than the coupling tolerance (0.05 K) and contracts at least
 /// twofold per renewal near the answer, so each lies within about that tolerance of the fixed
 /// point: the hottest temperatures may differ by 0.1 K. A VG 46 oil's viscosity falls by about
@@ -369,11 +370,17 @@ fn coarse_grid_start_reaches_the_same_equilibrium_with_half_the_fine_work() {
         ..adiabatic
     };
     let line = Support::TiltingLine { offset_along: 0.6 };
+    let taper = Support::TaperedLand {
+        taper_fraction: 0.8,
+        taper_depth: 30e-6,
+    };
     for (settings, support, load) in [
         (adiabatic, tilting(), 20e3),
         (adiabatic, tilting(), 60e3),
         (conducting, tilting(), 20e3),
         (adiabatic, line, 20e3),
+        (adiabatic, taper, 20e3),
+        (conducting, taper, 60e3),
     ] {
         let d = sector(support, FilmTemperature::Field(settings), load);
         let nested = analyze(&d).unwrap();

@@ -249,17 +249,18 @@ pub fn pad_solver(design: &BearingDesign) -> Result<ReynoldsSolver, SolverError>
     ))
 }
 
-/// Smallest number of nodes per direction of the coarse grid that starts a thermal tilting-pad
-/// equilibrium (see [`solve_field_pad`]). On coarser grids the temperature field differs from
+/// Smallest number of nodes per direction of the coarse grid that starts a thermal pad's
+/// equilibrium under a load (see [`solve_field_pad`]). On coarser grids the temperature field differs from
 /// the finer grid's by so much that the rounds saved are spent again on the finer grid
 /// (measured: a 17 × 17 start for the 65 × 65 default grid gained nothing).
 const COARSE_START_MIN_NODES: usize = 33;
 
 /// The thermal pad of `design` on `solver` in equilibrium, and the coarse solution it started
-/// from, if any. A tilting pad under a given load is first solved on the grid with every other
-/// node (itself started the same way while the grid has at least [`COARSE_START_MIN_NODES`]
-/// per direction), and the equilibrium on this grid starts from that solution's temperatures,
-/// film state and Jacobian (nested iteration): the coupling rounds far from the answer, which
+/// from, if any. A pad under a given load (tilting or fixed) is first solved on the grid with
+/// every other node (itself started the same way while the grid has at least
+/// [`COARSE_START_MIN_NODES`] per direction), and the equilibrium on this grid starts from that
+/// solution's temperatures and film (with the Jacobian, for a tilting pad) (nested
+/// iteration): the coupling rounds far from the answer, which
 /// take the most pressure solves and temperature renewals, run at a quarter of the cost. The
 /// answer is this grid's, to the same tolerances; only the path to it changes. A coarse
 /// solution that fails is ignored, and so is a start that does not converge: the search then
@@ -272,13 +273,8 @@ fn solve_field_pad(
     let mut resp = FieldPad::new(solver, design.lubricant.clone(), settings)?;
     let g = resp.solver.grid();
     let halve = |n: usize| (n - 1).is_multiple_of(2).then_some((n - 1) / 2 + 1);
-    let coarse = match (
-        design.support.is_tilting(),
-        design.duty,
-        halve(g.nodes_along()),
-        halve(g.nodes_across()),
-    ) {
-        (true, Duty::Load(w), Some(na), Some(nc))
+    let coarse = match (design.duty, halve(g.nodes_along()), halve(g.nodes_across())) {
+        (Duty::Load(w), Some(na), Some(nc))
             if na >= COARSE_START_MIN_NODES && nc >= COARSE_START_MIN_NODES =>
         {
             let mut d = design.clone();
@@ -296,13 +292,14 @@ fn solve_field_pad(
         return Ok((resp, eq, None));
     };
     resp.start_from(&coarse_pad)?;
-    let started = equilibrium::tilting_pad_from(
-        &mut resp,
-        w / design.pad_count as f64,
-        design.crown,
-        &design.numerics.equilibrium,
-        Some(coarse_eq.restart()),
-    );
+    let (load, settings_eq) = (w / design.pad_count as f64, &design.numerics.equilibrium);
+    let started = if design.support.is_tilting() {
+        let start = Some(coarse_eq.restart());
+        equilibrium::tilting_pad_from(&mut resp, load, design.crown, settings_eq, start)
+    } else {
+        let start = Some(coarse_pad.min_film(&coarse_eq.state));
+        equilibrium::fixed_pad_at_load_from(&mut resp, load, design.crown, settings_eq, start)
+    };
     let eq = match started {
         Ok(eq) => eq,
         Err(SolverError::NotConverged { .. }) => {

@@ -376,27 +376,73 @@ pub fn fixed_pad_at_load<R: FilmResponse>(
     crown: f64,
     settings: &EquilibriumSettings,
 ) -> Result<Equilibrium, SolverError> {
+    fixed_pad_at_load_from(r, load, crown, settings, None)
+}
+
+/// [`fixed_pad_at_load`] from the minimum film `start` (m) of a nearby solution, such as the
+/// same pad on a coarser grid, whose internal state a coupled model should have taken over
+/// (see [`crate::thermal::FieldPad::start_from`]): the search brackets around it, and a
+/// coupled model renews its state once at that film before the rounds.
+pub fn fixed_pad_at_load_from<R: FilmResponse>(
+    r: &mut R,
+    load: f64,
+    crown: f64,
+    settings: &EquilibriumSettings,
+    start: Option<f64>,
+) -> Result<Equilibrium, SolverError> {
     let coupled = r.update_tolerance().is_finite();
     if !coupled {
-        return fixed_frozen(r, load, crown, settings, true, None);
+        return fixed_frozen(r, load, crown, settings, true, start);
     }
     // Inexact rounds, as for the tilting pad: each frozen equilibrium before the last is solved
-    // only to a fraction of the shift the next renewal brings. The first renewal moves the
-    // temperatures from the supply's by kelvins: its round is solved as for a change of 10 K.
+    // only to a fraction of the shift the next renewal brings. Without a start the first
+    // renewal moves the temperatures from the supply's by kelvins: that round is solved as for
+    // a change of 10 K.
     let round = |change: f64| EquilibriumSettings {
         tolerance: settings.tolerance.max(ROUND_TOLERANCE_PER_KELVIN * change),
         ..*settings
     };
-    let mut eq = fixed_frozen(r, load, crown, &round(FIRST_ROUND_KELVIN), false, None)?;
-    let mut solves = eq.pressure_solves;
-    let mut iterations = eq.iterations;
+    let (mut solves, mut iterations) = (0, 0);
+    // Where the next round searches from: the state of the last frozen equilibrium, or the
+    // start's minimum film.
+    enum From {
+        State(FilmState),
+        MinFilm(f64),
+    }
+    let mut from = match start {
+        Some(h) => {
+            // The carried-over temperatures belong to the nearby solution: renew them from this
+            // model's pressure at its film (a rough pressure suffices).
+            let off = fixed_offset(r, crown);
+            let mut c = Counted::new(r);
+            c.relax(MAX_RELAXED_PRESSURE_TOL);
+            let state = FilmState {
+                reference: h - off,
+                crown,
+                ..Default::default()
+            };
+            c.forces(&state, Start::Warm)?;
+            solves += c.solves;
+            From::MinFilm(h)
+        }
+        None => {
+            let eq = fixed_frozen(r, load, crown, &round(FIRST_ROUND_KELVIN), false, None)?;
+            solves += eq.pressure_solves;
+            iterations += eq.iterations;
+            From::State(eq.state)
+        }
+    };
     for _ in 0..r.update_limit() {
-        // The frozen solve leaves the solver at the equilibrium: renew the temperatures.
+        // The last solve left the solver at that film: renew the temperatures, then search
+        // from the same reference film (the thermal crown may have moved the minimum film).
         let change = r.update()?;
+        let guess = match &from {
+            From::State(state) => r.min_film(state),
+            From::MinFilm(h) => *h,
+        };
         let last = change < r.update_tolerance();
-        let guess = r.min_film(&eq.state);
         let settings = if last { *settings } else { round(change) };
-        eq = fixed_frozen(r, load, crown, &settings, last, Some(guess))?;
+        let mut eq = fixed_frozen(r, load, crown, &settings, last, Some(guess))?;
         solves += eq.pressure_solves;
         iterations += eq.iterations;
         if last {
@@ -404,6 +450,7 @@ pub fn fixed_pad_at_load<R: FilmResponse>(
             eq.iterations = iterations;
             return Ok(eq);
         }
+        from = From::State(eq.state);
     }
     Err(SolverError::NotConverged {
         what: "coupling of film temperature and load",

@@ -72,11 +72,12 @@ pub struct SolutionStats {
     pub load_error: f64,
     /// Relative moment error at the equilibrium (tilting pads).
     pub moment_error: f64,
-    /// The coarser-grid solution the equilibrium started from (thermal tilting pads), if any.
+    /// The coarser-grid solution the equilibrium started from (thermal pads under a load), if
+    /// any.
     pub coarse_start: Option<CoarseStart>,
 }
 
-/// The solution of the same pad on a coarser grid that a thermal tilting-pad equilibrium
+/// The solution of the same pad on a coarser grid that a thermal pad's equilibrium under a load
 /// started from (nested iteration); the counts cover every coarser grid involved.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct CoarseStart {

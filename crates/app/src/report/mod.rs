@@ -169,7 +169,8 @@ pub struct SolverOut {
     pub load_error: f64,
     /// Relative moment error at the equilibrium (0 for fixed pads).
     pub moment_error: f64,
-    /// The coarser-grid solution a thermal tilting-pad equilibrium started from (null if none).
+    /// The coarser-grid solution a thermal pad's equilibrium under a load started from (null if
+    /// none).
     pub coarse_start: Option<CoarseStartOut>,
 }
 
