@@ -369,7 +369,7 @@ fn fixed_stiffness<R: FilmResponse>(
 }
 
 /// The minimum film at which a fixed pad carries `load` (N). Coupled (thermal) models
-/// alternate exact frozen solutions with updates of their internal state.
+/// alternate frozen solutions (inexact before the last) with updates of their internal state.
 pub fn fixed_pad_at_load<R: FilmResponse>(
     r: &mut R,
     load: f64,
