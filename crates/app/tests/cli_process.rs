@@ -91,14 +91,14 @@ fn f(v: &Value, path: &str) -> f64 {
         .unwrap_or_else(|| panic!("{path} is a number"))
 }
 
-/// Whether the equilibrium of `v` starts from a coarser grid: thermal field model, a given load
+/// Whether the equilibrium of `v` starts from a coarser grid: a thermal model, a given load
 /// and a grid that halves to at least 33 nodes per direction (as the solver documents).
 fn expects_coarse_start(v: &Value) -> bool {
     let halves = |key: &str| {
         let n = v["solver"][key].as_u64().unwrap();
         (n - 1).is_multiple_of(2) && (n - 1) / 2 + 1 >= 33
     };
-    v["design"]["temperature_model"] == "field"
+    v["design"]["temperature_model"] != "effective"
         && v["design"]["duty"]["kind"] == "total_load"
         && halves("nodes_along")
         && halves("nodes_across")

@@ -250,28 +250,88 @@ pub fn pad_solver(design: &BearingDesign) -> Result<ReynoldsSolver, SolverError>
 }
 
 /// Smallest number of nodes per direction of the coarse grid that starts a thermal pad's
-/// equilibrium under a load (see [`solve_field_pad`]). On coarser grids the temperature field differs from
-/// the finer grid's by so much that the rounds saved are spent again on the finer grid
-/// (measured: a 17 × 17 start for the 65 × 65 default grid gained nothing).
+/// equilibrium under a load (see [`solve_nested`]). On coarser grids the temperature field
+/// differs from the finer grid's by so much that the rounds saved are spent again on the
+/// finer grid (measured: a 17 × 17 start for the 65 × 65 default grid gained nothing).
 const COARSE_START_MIN_NODES: usize = 33;
+
+/// A coarse-grid verdict of "no equilibrium" is taken as this grid's when the centre of
+/// pressure stays at least this far (fraction of the pad length) aft of the pivot: the
+/// centre of pressure of the grid with every other node lies within a few thousandths of the
+/// finer grid's (second-order discretisation; common practice, no source).
+const CLEARLY_SHORT_OF_PIVOT: f64 = 0.02;
+
+/// A thermal response that can take over the state of the same pad solved on another grid.
+trait NestedStart: FilmResponse + Sized {
+    /// The response of `design` (whose temperature model is this response's) on `solver`.
+    fn for_design(design: &BearingDesign, solver: ReynoldsSolver) -> Result<Self, SolverError>;
+    /// Takes over the thermal state of `coarse`.
+    fn start_from(&mut self, coarse: &Self) -> Result<(), SolverError>;
+    /// The grid the response solves on.
+    fn grid(&self) -> &Grid;
+    /// Renewals of the thermal state so far.
+    fn renewals(&self) -> usize;
+}
+
+impl NestedStart for FieldPad {
+    fn for_design(design: &BearingDesign, solver: ReynoldsSolver) -> Result<Self, SolverError> {
+        let FilmTemperature::Field(settings) = design.temperature else {
+            return Err(SolverError::Input(InputError::Inconsistent(
+                "the film-temperature field response needs the field model".into(),
+            )));
+        };
+        FieldPad::new(solver, design.lubricant.clone(), settings)
+    }
+    fn start_from(&mut self, coarse: &Self) -> Result<(), SolverError> {
+        FieldPad::start_from(self, coarse)
+    }
+    fn grid(&self) -> &Grid {
+        self.solver.grid()
+    }
+    fn renewals(&self) -> usize {
+        self.thermal().iterations
+    }
+}
+
+impl NestedStart for BulkPad {
+    fn for_design(design: &BearingDesign, solver: ReynoldsSolver) -> Result<Self, SolverError> {
+        let FilmTemperature::Bulk {
+            supply,
+            rise_fraction,
+        } = design.temperature
+        else {
+            return Err(SolverError::Input(InputError::Inconsistent(
+                "the bulk-temperature response needs the bulk model".into(),
+            )));
+        };
+        BulkPad::new(solver, design.lubricant.clone(), supply, rise_fraction)
+    }
+    fn start_from(&mut self, coarse: &Self) -> Result<(), SolverError> {
+        BulkPad::start_from(self, coarse)
+    }
+    fn grid(&self) -> &Grid {
+        self.pad.solver.grid()
+    }
+    fn renewals(&self) -> usize {
+        BulkPad::renewals(self)
+    }
+}
 
 /// The thermal pad of `design` on `solver` in equilibrium, and the coarse solution it started
 /// from, if any. A pad under a given load (tilting or fixed) is first solved on the grid with
 /// every other node (itself started the same way while the grid has at least
 /// [`COARSE_START_MIN_NODES`] per direction), and the equilibrium on this grid starts from that
-/// solution's temperatures and film (with the Jacobian, for a tilting pad) (nested
-/// iteration): the coupling rounds far from the answer, which
-/// take the most pressure solves and temperature renewals, run at a quarter of the cost. The
-/// answer is this grid's, to the same tolerances; only the path to it changes. A coarse
-/// solution that fails is ignored, and so is a start that does not converge: the search then
-/// begins afresh on this grid.
-fn solve_field_pad(
+/// solution's temperatures and film (with the Jacobian, for a tilting pad): nested iteration.
+/// The coupling rounds far from the answer, which take the most pressure solves and
+/// temperature renewals, run at a quarter of the cost. The answer is this grid's, to the same
+/// tolerances; only the path to it changes. A coarse solution that fails is ignored, and so
+/// is a start that does not converge: the search then begins afresh on this grid.
+fn solve_nested<P: NestedStart>(
     design: &BearingDesign,
     solver: ReynoldsSolver,
-    settings: FieldSettings,
-) -> Result<(FieldPad, Equilibrium, Option<CoarseStart>), SolverError> {
-    let mut resp = FieldPad::new(solver, design.lubricant.clone(), settings)?;
-    let g = resp.solver.grid();
+) -> Result<(P, Equilibrium, Option<CoarseStart>), SolverError> {
+    let mut resp = P::for_design(design, solver)?;
+    let g = resp.grid();
     let halve = |n: usize| (n - 1).is_multiple_of(2).then_some((n - 1) / 2 + 1);
     let coarse = match (design.duty, halve(g.nodes_along()), halve(g.nodes_across())) {
         (Duty::Load(w), Some(na), Some(nc))
@@ -280,10 +340,18 @@ fn solve_field_pad(
             let mut d = design.clone();
             d.numerics.nodes_along = na;
             d.numerics.nodes_across = nc;
-            pad_solver(&d)
-                .ok()
-                .and_then(|s| solve_field_pad(&d, s, settings).ok())
-                .map(|c| (c, w))
+            match pad_solver(&d).and_then(|s| solve_nested::<P>(&d, s)) {
+                Ok(c) => Some((c, w)),
+                // Where the centre of pressure stays clearly aft of the pivot on the coarse
+                // grid it does so on this one: the discretisation moves it far less.
+                Err(
+                    e @ SolverError::NoEquilibrium {
+                        short_of_pivot: Some(s),
+                        ..
+                    },
+                ) if s >= CLEARLY_SHORT_OF_PIVOT => return Err(e),
+                Err(_) => None,
+            }
         }
         _ => None,
     };
@@ -303,18 +371,17 @@ fn solve_field_pad(
     let eq = match started {
         Ok(eq) => eq,
         Err(SolverError::NotConverged { .. }) => {
-            let mut resp = FieldPad::new(pad_solver(design)?, design.lubricant.clone(), settings)?;
+            let mut resp = P::for_design(design, pad_solver(design)?)?;
             let eq = solve_pad(&mut resp, design)?;
             return Ok((resp, eq, None));
         }
         Err(e) => return Err(e),
     };
     let start = CoarseStart {
-        nodes_along: coarse_pad.solver.grid().nodes_along(),
-        nodes_across: coarse_pad.solver.grid().nodes_across(),
+        nodes_along: coarse_pad.grid().nodes_along(),
+        nodes_across: coarse_pad.grid().nodes_across(),
         pressure_solves: coarse_eq.pressure_solves + before.map_or(0, |b| b.pressure_solves),
-        temperature_renewals: coarse_pad.thermal().iterations
-            + before.map_or(0, |b| b.temperature_renewals),
+        temperature_renewals: coarse_pad.renewals() + before.map_or(0, |b| b.temperature_renewals),
     };
     Ok((resp, eq, Some(start)))
 }
@@ -373,8 +440,7 @@ pub fn analyze(design: &BearingDesign) -> Result<BearingResult, SolverError> {
             supply,
             rise_fraction,
         } => {
-            let mut resp = BulkPad::new(solver, lub.clone(), supply, rise_fraction)?;
-            let eq = solve_pad(&mut resp, design)?;
+            let (resp, eq, coarse_start) = solve_nested::<BulkPad>(design, solver)?;
             // Report the inlet and rise of the final solution (the viscosity's temperature
             // agrees with them to the coupling tolerance).
             let (t_in, rise) = resp.inlet_and_rise(&eq.integrals);
@@ -421,7 +487,7 @@ pub fn analyze(design: &BearingDesign) -> Result<BearingResult, SolverError> {
             };
             check_supply(&supply, thermal.fresh_oil_flow, &mut notes);
             let mu_field = resp.pad.viscosity().to_vec();
-            Ok(assemble_result(
+            let mut result = assemble_result(
                 design,
                 &resp.pad.solver,
                 &eq,
@@ -429,10 +495,12 @@ pub fn analyze(design: &BearingDesign) -> Result<BearingResult, SolverError> {
                 &mu_field,
                 Some(thermal),
                 notes,
-            ))
+            );
+            result.stats.coarse_start = coarse_start;
+            Ok(result)
         }
         FilmTemperature::Field(settings) => {
-            let (mut resp, eq, coarse_start) = solve_field_pad(design, solver, settings)?;
+            let (mut resp, eq, coarse_start) = solve_nested::<FieldPad>(design, solver)?;
             resp.refresh_report();
             let th = resp.thermal().clone();
             let g = resp.solver.grid();

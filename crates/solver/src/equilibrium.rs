@@ -1179,6 +1179,7 @@ fn scan_pitch<R: FilmResponse>(
         offset_along: frame.pivot.0,
         offset_across: frame.pivot.1,
         reason,
+        short_of_pivot: None,
     };
     let grid = [0.005, 0.015, 0.04, 0.1, 0.25, 0.6, 1.5, 4.0, 10.0, 25.0];
     let mut prev: Option<(Shape, f64)> = None;
@@ -1226,12 +1227,17 @@ fn scan_pitch<R: FilmResponse>(
         // pad length: its largest value is how far forward the centre of pressure can come.
         let best = signs.iter().copied().fold(f64::NEG_INFINITY, f64::max);
         if best.is_finite() && best < -0.005 {
-            Err(no_eq(format!(
-                "the centre of pressure cannot come as far forward as the pivot for any tilt; \
-                 at best it lies at about {:.0} % of the arc (move the pivot aft of that, or \
-                 give the pad face a crown)",
-                100.0 * (frame.pivot.0 - best)
-            )))
+            Err(SolverError::NoEquilibrium {
+                offset_along: frame.pivot.0,
+                offset_across: frame.pivot.1,
+                reason: format!(
+                    "the centre of pressure cannot come as far forward as the pivot for any \
+                     tilt; at best it lies at about {:.0} % of the arc (move the pivot aft of \
+                     that, or give the pad face a crown)",
+                    100.0 * (frame.pivot.0 - best)
+                ),
+                short_of_pivot: Some(-best),
+            })
         } else {
             Err(no_eq(flat_reason()))
         }
@@ -1280,6 +1286,7 @@ fn newton_tilt<R: FilmResponse>(
         offset_along: frame.pivot.0,
         offset_across: frame.pivot.1,
         reason,
+        short_of_pivot: None,
     };
     let feasible = |c: &Counted<R>, s: &Shape| {
         let st = frame.state(s);

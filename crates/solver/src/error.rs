@@ -60,6 +60,9 @@ pub enum SolverError {
         offset_across: f64,
         /// What was found, in words.
         reason: String,
+        /// How far aft of the pivot the centre of pressure stays at best, as a fraction of
+        /// the pad length, where the pitch scan measured it (none for the other reasons).
+        short_of_pivot: Option<f64>,
     },
     /// The film would close: the pad touches the runner.
     #[error("the film closes: the pad would touch the runner (smallest film {min_film_um:.3} µm)")]

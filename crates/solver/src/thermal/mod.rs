@@ -564,6 +564,7 @@ pub struct BulkPad {
     last: Option<PadIntegrals>,
     previous_residual: Option<f64>,
     omega: f64,
+    renewals: usize,
 }
 
 impl BulkPad {
@@ -592,7 +593,30 @@ impl BulkPad {
             last: None,
             previous_residual: None,
             omega: 0.5,
+            renewals: 0,
         })
+    }
+
+    /// Renewals of the effective temperature so far.
+    pub fn renewals(&self) -> usize {
+        self.renewals
+    }
+
+    /// Takes over the effective temperature (and its viscosity), inlet temperature, rise and
+    /// relaxation of `coarse`, the same pad solved on another (usually coarser) grid.
+    pub fn start_from(&mut self, coarse: &BulkPad) -> Result<(), SolverError> {
+        self.effective_temperature = coarse.effective_temperature;
+        self.inlet = coarse.inlet;
+        self.rise = coarse.rise;
+        self.omega = coarse.omega;
+        self.previous_residual = None;
+        self.last = None;
+        let mu = self
+            .lubricant
+            .dynamic_viscosity_pa_s(self.effective_temperature)
+            .map_err(lub)?;
+        self.pad.set_viscosity(mu);
+        Ok(())
     }
 }
 
@@ -669,6 +693,7 @@ impl FilmResponse for BulkPad {
         self.inlet = t_in;
         self.rise = rise;
         self.effective_temperature = t_eff;
+        self.renewals += 1;
         let mu = self.lubricant.dynamic_viscosity_pa_s(t_eff).map_err(lub)?;
         self.pad.set_viscosity(mu);
         Ok(change)
