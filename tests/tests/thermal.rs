@@ -433,8 +433,8 @@ fn coarse_grid_start_reaches_the_same_equilibrium_with_half_the_fine_work() {
 /// bounds the residual of the effective temperature (0.05 K), not its error: where heating
 /// feeds back strongly the error can be several times the residual, so film and power may
 /// differ by a few tenths of a percent between the two paths (measured: at most 0.08 % on
-/// 162 tilting and 0.23 % on 27 fixed-pad designs with an answer); 0.5 % is allowed. The nested search
-/// takes at most half the fine-grid pressure solves.
+/// 162 tilting and 0.23 % on 27 fixed-pad designs with an answer); 0.5 % is allowed. The
+/// nested search takes at most half the fine-grid pressure solves.
 #[test]
 fn bulk_model_coarse_grid_start_reaches_the_same_equilibrium() {
     use padwright_solver::bearing::{pad_solver, solve_pad};
