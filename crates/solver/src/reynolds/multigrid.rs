@@ -677,7 +677,7 @@ pub struct CycleSettings {
 impl Default for CycleSettings {
     /// V(1,1) with over-relaxed red–black Gauss–Seidel, ω = 1.2, or unrelaxed line
     /// Gauss–Seidel along η where the cells couple more strongly along η: the fastest of the
-    /// settings measured on the benchmark pads (see the README's performance section).
+    /// settings measured on the benchmark pads (see the crate's `PERFORMANCE.md`).
     fn default() -> Self {
         CycleSettings {
             pre_sweeps: 1,
