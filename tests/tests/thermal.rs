@@ -359,7 +359,6 @@ fn equilibrium_ends_on_exact_solves() {
 #[test]
 fn coarse_grid_start_reaches_the_same_equilibrium_with_half_the_fine_work() {
     use padwright_solver::bearing::{pad_solver, solve_pad};
-    use padwright_solver::equilibrium::FilmResponse;
     use padwright_solver::thermal::FieldPad;
     let adiabatic = FieldSettings::adiabatic(supply(45.0));
     let conducting = FieldSettings {
@@ -393,14 +392,7 @@ fn coarse_grid_start_reaches_the_same_equilibrium_with_half_the_fine_work() {
         let mut pad =
             FieldPad::new(pad_solver(&d).unwrap(), d.lubricant.clone(), settings).unwrap();
         let eq = solve_pad(&mut pad, &d).unwrap();
-        let min_film = pad.min_film(&eq.state);
-        let hottest = pad
-            .thermal()
-            .temperature
-            .iter()
-            .copied()
-            .fold(0.0, f64::max);
-        let power = eq.integrals.power_loss * d.pad_count as f64;
+        let (min_film, hottest, power) = field_summary(&pad, &eq, d.pad_count);
         let renewals = pad.thermal().iterations;
         let th = thermal(&nested);
         eprintln!(
@@ -525,6 +517,24 @@ fn no_equilibrium_verdict_of_the_coarse_grid_is_the_fine_grids() {
     }
 }
 
+/// Minimum film (m), hottest film temperature (K) and bearing power loss (W) of a field-model
+/// pad in the equilibrium `eq` that `solve_pad` found for it.
+fn field_summary(
+    pad: &padwright_solver::thermal::FieldPad,
+    eq: &padwright_solver::equilibrium::Equilibrium,
+    pad_count: usize,
+) -> (f64, f64, f64) {
+    use padwright_solver::equilibrium::FilmResponse;
+    let hottest = pad
+        .thermal()
+        .temperature
+        .iter()
+        .copied()
+        .fold(0.0, f64::max);
+    let power = eq.integrals.power_loss * pad_count as f64;
+    (pad.min_film(&eq.state), hottest, power)
+}
+
 /// A seeded random thermal design (invented proportions spanning common practice, no
 /// source): a sector or rectangular pad, pivoted at a point or along a line aft of mid-arc or
 /// with a tapered land, crowned or not, ISO VG 32–68, adiabatic or with a conducting pad and a
@@ -606,7 +616,6 @@ fn random_thermal_design(rng: &mut fastrand::Rng) -> BearingDesign {
 #[test]
 fn nested_start_agrees_with_the_fresh_search_on_random_designs() {
     use padwright_solver::bearing::{pad_solver, solve_pad};
-    use padwright_solver::equilibrium::FilmResponse;
     use padwright_solver::thermal::FieldPad;
     const DESIGNS: usize = 24;
     let mut rng = fastrand::Rng::with_seed(0x5eed_0004);
@@ -622,14 +631,7 @@ fn nested_start_agrees_with_the_fresh_search_on_random_designs() {
         let fresh = solve_pad(&mut pad, &d);
         match (&nested, &fresh) {
             (Ok(n), Ok(eq)) => {
-                let min_film = pad.min_film(&eq.state);
-                let hottest = pad
-                    .thermal()
-                    .temperature
-                    .iter()
-                    .copied()
-                    .fold(0.0, f64::max);
-                let power = eq.integrals.power_loss * d.pad_count as f64;
+                let (min_film, hottest, power) = field_summary(&pad, eq, d.pad_count);
                 let th = thermal(n);
                 eprintln!(
                     "{k:2}: {:?}, {:?}: min film {:.4} / {:.4} µm, hottest {:.3} / {:.3} °C, \
