@@ -323,31 +323,10 @@ fn line_smoothing_keeps_anisotropic_cells_fast() {
     }
 }
 
-/// The warm-start test pad: a sector tilting pad (60–120 mm, 45°) on 65 × 65 nodes, solved to
-/// a relative residual of 1e-8 without cavitation.
+/// The warm-start test pad: the benchmark pad (see [`benchmark_pad`]) on 65 × 65 nodes,
+/// solved to a relative residual of 1e-8 without cavitation.
 fn warm_test_solver() -> ReynoldsSolver {
-    let outline = PadOutline::Sector {
-        inner_radius: 0.06,
-        outer_radius: 0.12,
-        arc: 45f64.to_radians(),
-    };
-    let support = Support::TiltingPoint {
-        offset_along: 0.6,
-        offset_across: 0.5,
-    };
-    let settings = ReynoldsSettings {
-        tolerance: 1e-8,
-        cavitation: false,
-        ..Default::default()
-    };
-    pads::solver(
-        outline,
-        RunnerSpeed::Angular(314.0),
-        support,
-        65,
-        65,
-        settings,
-    )
+    benchmark_pad(65, false, ReynoldsSettings::default().max_cycles).0
 }
 
 /// The warm-start test film: pivot film `h` (m) with a fixed pitch and roll.
