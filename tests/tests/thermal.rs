@@ -612,14 +612,18 @@ fn random_thermal_design(rng: &mut fastrand::Rng) -> BearingDesign {
 /// answer, or the same kind of refusal), and where both answer the same minimum film and power
 /// loss within 0.2 % and hottest film temperature within 0.1 K (the tolerances of
 /// [`coarse_grid_start_reaches_the_same_equilibrium_with_half_the_fine_work`]), with fewer
-/// fine-grid pressure solves in all. Every number of an answer is finite.
+/// fine-grid pressure solves in all. Every number of an answer is finite. The same designs
+/// with the bulk model agree to 0.5 % (its stopping rule bounds the residual of the effective
+/// temperature, not its error; see [`bulk_model_coarse_grid_start_reaches_the_same_equilibrium`]).
 #[test]
 fn nested_start_agrees_with_the_fresh_search_on_random_designs() {
     use padwright_solver::bearing::{pad_solver, solve_pad};
-    use padwright_solver::thermal::FieldPad;
+    use padwright_solver::equilibrium::FilmResponse;
+    use padwright_solver::thermal::{BulkPad, FieldPad};
     const DESIGNS: usize = 24;
     let mut rng = fastrand::Rng::with_seed(0x5eed_0004);
     let (mut answers, mut nested_solves, mut fresh_solves) = (0, 0, 0);
+    let (mut bulk_answers, mut bulk_solves) = (0, (0, 0));
     for k in 0..DESIGNS {
         let d = random_thermal_design(&mut rng);
         let FilmTemperature::Field(settings) = d.temperature else {
@@ -677,11 +681,49 @@ fn nested_start_agrees_with_the_fresh_search_on_random_designs() {
             }
             _ => panic!("design {k}: nested {nested:?}, fresh {fresh:?}"),
         }
+        // The same design with the bulk model.
+        let supply = settings.supply;
+        let rise_fraction = 0.8;
+        let db = BearingDesign {
+            temperature: FilmTemperature::Bulk {
+                supply,
+                rise_fraction,
+            },
+            ..d.clone()
+        };
+        let nested = analyze(&db);
+        let solver = pad_solver(&db).unwrap();
+        let mut pad = BulkPad::new(solver, db.lubricant.clone(), supply, rise_fraction).unwrap();
+        let fresh = solve_pad(&mut pad, &db);
+        match (&nested, &fresh) {
+            (Ok(n), Ok(eq)) => {
+                let power = eq.integrals.power_loss * db.pad_count as f64;
+                let min_film = pad.min_film(&eq.state);
+                assert!(n.pad.min_film.is_finite() && n.power_loss.is_finite());
+                assert_relative_eq!(n.pad.min_film, min_film, max_relative = 5e-3);
+                assert_relative_eq!(n.power_loss, power, max_relative = 5e-3);
+                bulk_answers += 1;
+                bulk_solves.0 += n.stats.pressure_solves;
+                bulk_solves.1 += eq.pressure_solves;
+            }
+            (Err(a), Err(b)) => assert_eq!(
+                std::mem::discriminant(a),
+                std::mem::discriminant(b),
+                "bulk design {k}: {a} / {b}"
+            ),
+            _ => panic!("bulk design {k}: nested {nested:?}, fresh {fresh:?}"),
+        }
     }
-    eprintln!("{answers} answers; fine-grid solves {nested_solves} nested / {fresh_solves} fresh");
-    assert!(
-        answers >= DESIGNS * 3 / 4,
-        "only {answers} of {DESIGNS} random designs answered"
+    eprintln!(
+        "field: {answers} answers, fine-grid solves {nested_solves} nested / {fresh_solves} \
+         fresh; bulk: {bulk_answers} answers, {} / {}",
+        bulk_solves.0, bulk_solves.1
     );
-    assert!(nested_solves < fresh_solves);
+    for (model, n) in [("field", answers), ("bulk", bulk_answers)] {
+        assert!(
+            n >= DESIGNS * 3 / 4,
+            "{model}: only {n} of {DESIGNS} random designs answered"
+        );
+    }
+    assert!(nested_solves < fresh_solves && bulk_solves.0 < bulk_solves.1);
 }
